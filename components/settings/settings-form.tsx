@@ -1,0 +1,116 @@
+"use client";
+
+import { updateSettingsAction } from "@/app/(app)/settings/actions";
+import { buttonClass, inputClass } from "@/components/ui/button";
+import { Field } from "@/components/ui/field";
+import { useFormAction } from "@/components/ui/use-form-action";
+
+export type SettingsValues = {
+  name: string;
+  distanceUnit: "mi" | "km";
+  bandWidth: number;
+  comebackDays: number;
+  comebackDistance: number;
+  refuelWindow: number;
+  confidenceLevel: number;
+  minExposure: number;
+  uploadLimitMb: number;
+};
+
+export function SettingsForm({ values }: { values: SettingsValues }) {
+  const {
+    state,
+    isPending,
+    formRef,
+    onSubmit,
+    fieldErrors: errors,
+  } = useFormAction(updateSettingsAction);
+  const unit = values.distanceUnit;
+  return (
+    <form ref={formRef} onSubmit={onSubmit} className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+      <Field
+        name="name"
+        label="Organisation name"
+        defaultValue={values.name}
+        errors={errors?.name}
+      />
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Distances in</span>
+        <select name="distanceUnit" defaultValue={unit} className={inputClass}>
+          <option value="mi">miles</option>
+          <option value="km">kilometres</option>
+        </select>
+      </label>
+      <Field
+        name="bandWidth"
+        label={`Mileage band width (${unit})`}
+        inputMode="numeric"
+        defaultValue={values.bandWidth}
+        errors={errors?.bandWidth}
+        hint="Default 25,000 mi (40,000 km)."
+      />
+      <Field
+        name="comebackDays"
+        label="Comeback window (days)"
+        inputMode="numeric"
+        defaultValue={values.comebackDays}
+        errors={errors?.comebackDays}
+      />
+      <Field
+        name="comebackDistance"
+        label={`Comeback window (${unit})`}
+        inputMode="numeric"
+        defaultValue={values.comebackDistance}
+        errors={errors?.comebackDistance}
+      />
+      <Field
+        name="refuelWindow"
+        label={`Post-refuel window (${unit})`}
+        inputMode="numeric"
+        defaultValue={values.refuelWindow}
+        errors={errors?.refuelWindow}
+      />
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Interval confidence</span>
+        <select
+          name="confidenceLevel"
+          defaultValue={String(values.confidenceLevel)}
+          className={inputClass}
+        >
+          <option value="0.8">80%</option>
+          <option value="0.9">90%</option>
+          <option value="0.95">95%</option>
+          <option value="0.99">99%</option>
+        </select>
+      </label>
+      <Field
+        name="minExposure"
+        label={`Minimum exposure per cell (${unit})`}
+        inputMode="numeric"
+        defaultValue={values.minExposure}
+        errors={errors?.minExposure}
+        hint="Below this a cell shows as “too little data”."
+      />
+      <Field
+        name="uploadLimitMb"
+        label="Upload size limit (MB)"
+        inputMode="numeric"
+        defaultValue={values.uploadLimitMb}
+        errors={errors?.uploadLimitMb}
+      />
+      <div className="flex items-center gap-3 sm:col-span-2 lg:col-span-3">
+        <button type="submit" className={buttonClass.primary} disabled={isPending}>
+          {isPending ? "Saving…" : "Save settings"}
+        </button>
+        {state ? (
+          <p
+            role={state.ok ? "status" : "alert"}
+            className={state.ok ? "text-ok-700" : "text-alarm-700"}
+          >
+            {state.message}
+          </p>
+        ) : null}
+      </div>
+    </form>
+  );
+}

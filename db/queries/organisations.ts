@@ -1,0 +1,114 @@
+import "server-only";
+import { asc, eq, ne, sql } from "drizzle-orm";
+import type { Db } from "@/db";
+import { memberships, organisations, users, type Role } from "@/db/schema";
+import { recordAudit } from "./audit";
+import { assertCan, ConflictError, NotFoundError, orgWhere, type OrgScope } from "./scope";
+
+export async function getOrganisation(db: Db, scope: OrgScope) {
+  const [org] = await db
+    .select()
+    .from(organisations)
+    .where(eq(organisations.id, scope.organisationId))
+    .limit(1);
+  if (!org) throw new NotFoundError("Organisation not found.");
+  return org;
+}
+
+export type OrganisationSettings = {
+  name: string;
+  distanceUnit: "mi" | "km";
+  bandWidth: number;
+  comebackDays: number;
+  comebackDistance: number;
+  refuelWindow: number;
+  confidenceLevel: number;
+  minExposure: number;
+  uploadLimitMb: number;
+};
+
+export async function updateOrganisationSettings(
+  db: Db,
+  scope: OrgScope,
+  settings: OrganisationSettings,
+): Promise<void> {
+  assertCan(scope, "settings:manage");
+  await db.transaction(async (tx) => {
+    const [before] = await tx
+      .select()
+      .from(organisations)
+      .where(eq(organisations.id, scope.organisationId));
+    if (!before) throw new NotFoundError("Organisation not found.");
+    await tx.update(organisations).set(settings).where(eq(organisations.id, scope.organisationId));
+    const changed = Object.fromEntries(
+      Object.entries(settings).filter(([k, v]) => before[k as keyof typeof before] !== v),
+    );
+    await recordAudit(tx, scope, {
+      action: "settings.update",
+      entity: "organisation",
+      entityId: scope.organisationId,
+      detail: changed,
+    });
+  });
+}
+
+export async function listMembers(db: Db, scope: OrgScope) {
+  assertCan(scope, "members:manage");
+  return db
+    .select({
+      membershipId: memberships.id,
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      role: memberships.role,
+      since: memberships.createdAt,
+      isDisabled: sql<boolean>`${users.disabledAt} is not null`,
+    })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(orgWhere(memberships, scope))
+    .orderBy(asc(users.name));
+}
+
+/** Changes a member's role; refuses to leave the organisation without an admin. */
+export async function changeMemberRole(
+  db: Db,
+  scope: OrgScope,
+  input: { membershipId: number; role: Role },
+): Promise<void> {
+  assertCan(scope, "members:manage");
+  await db.transaction(async (tx) => {
+    const [member] = await tx
+      .select({ id: memberships.id, role: memberships.role, userId: memberships.userId })
+      .from(memberships)
+      .where(orgWhere(memberships, scope, eq(memberships.id, input.membershipId)));
+    if (!member) throw new NotFoundError("No such member in this organisation.");
+    if (member.role === input.role) return;
+    if (member.role === "admin") {
+      const [others] = await tx
+        .select({ n: sql<number>`count(*)` })
+        .from(memberships)
+        .where(
+          orgWhere(
+            memberships,
+            scope,
+            eq(memberships.role, "admin"),
+            ne(memberships.id, member.id),
+          ),
+        );
+      if (Number(others?.n ?? 0) === 0) {
+        throw new ConflictError("The organisation needs at least one admin.");
+      }
+    }
+    await tx
+      .update(memberships)
+      .set({ role: input.role })
+      .where(orgWhere(memberships, scope, eq(memberships.id, member.id)));
+    await recordAudit(tx, scope, {
+      action: "member.role",
+      entity: "membership",
+      entityId: member.id,
+      detail: { userId: member.userId, from: member.role, to: input.role },
+    });
+  });
+}

@@ -1,0 +1,112 @@
+import { integer, real, sqliteTable, text, index, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { createdAt, id } from "./columns";
+import { components, generations } from "./catalogue";
+import { organisations } from "./organisations";
+
+const orgRef = () =>
+  integer("organisation_id")
+    .notNull()
+    .references(() => organisations.id, { onDelete: "cascade" });
+
+export const ANALYSIS_RUN_STATUSES = ["running", "done", "failed"] as const;
+
+/** One recompute of the cohort × band × fault cells for an organisation. */
+export const analysisRuns = sqliteTable(
+  "analysis_runs",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    status: text("status", { enum: ANALYSIS_RUN_STATUSES }).notNull().default("running"),
+    bandWidthMi: real("band_width_mi").notNull(),
+    confidenceLevel: real("confidence_level").notNull(),
+    cells: integer("cells"),
+    signals: integer("signals"),
+    /** Odometer readings ignored as implausible while deriving exposure. */
+    readingsIgnored: integer("readings_ignored"),
+    startedAt: createdAt(),
+    finishedAt: text("finished_at"),
+    error: text("error"),
+  },
+  (t) => [index("analysis_runs_org").on(t.organisationId, t.startedAt)],
+);
+
+/** Computed statistics of one cohort × mileage band × fault cell in one analysis run. */
+export const cellStats = sqliteTable(
+  "cell_stats",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    runId: integer("run_id")
+      .notNull()
+      .references(() => analysisRuns.id, { onDelete: "cascade" }),
+    make: text("make").notNull(),
+    model: text("model").notNull(),
+    generationId: integer("generation_id").references(() => generations.id, {
+      onDelete: "set null",
+    }),
+    /** Generation label, or the model year when no generation matches. */
+    cohortLabel: text("cohort_label").notNull(),
+    bandIndex: integer("band_index").notNull(),
+    bandFromMi: real("band_from_mi").notNull(),
+    bandToMi: real("band_to_mi").notNull(),
+    /** "dtc:P0441", "component:fuel-vapour/purge-valve" or both joined with "+". */
+    faultKey: text("fault_key").notNull(),
+    dtc: text("dtc"),
+    componentId: integer("component_id").references(() => components.id),
+    events: integer("events").notNull(),
+    exposureMi: real("exposure_mi").notNull(),
+    vehiclesAtRisk: integer("vehicles_at_risk").notNull(),
+    vehiclesAffected: integer("vehicles_affected").notNull(),
+    ratePer10k: real("rate_per_10k"),
+    rateLower: real("rate_lower"),
+    rateUpper: real("rate_upper"),
+    shareAffected: real("share_affected"),
+    shareLower: real("share_lower"),
+    shareUpper: real("share_upper"),
+    rateRatio: real("rate_ratio"),
+    ratioLower: real("ratio_lower"),
+    ratioUpper: real("ratio_upper"),
+    pValue: real("p_value"),
+    qValue: real("q_value"),
+    shrunkRatePer10k: real("shrunk_rate_per_10k"),
+    isSignal: integer("is_signal", { mode: "boolean" }).notNull().default(false),
+    hasTooLittleData: integer("has_too_little_data", { mode: "boolean" }).notNull().default(false),
+  },
+  (t) => [
+    index("cell_stats_run_rank").on(t.runId, t.ratioLower),
+    index("cell_stats_org_cell").on(t.organisationId, t.make, t.model, t.cohortLabel, t.bandIndex),
+    index("cell_stats_org_fault").on(t.organisationId, t.faultKey),
+  ],
+);
+
+export const SIGNAL_STATES = ["new", "seen", "promoted", "dismissed"] as const;
+
+/** A cell that stood out; kept across runs so "first seen" survives recomputes. */
+export const signals = sqliteTable(
+  "signals",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    cellKey: text("cell_key").notNull(),
+    make: text("make").notNull(),
+    model: text("model").notNull(),
+    cohortLabel: text("cohort_label").notNull(),
+    bandIndex: integer("band_index").notNull(),
+    faultKey: text("fault_key").notNull(),
+    state: text("state", { enum: SIGNAL_STATES }).notNull().default("new"),
+    firstSeenAt: createdAt(),
+    lastSeenAt: text("last_seen_at").notNull(),
+    lastRunId: integer("last_run_id"),
+    knownIssueId: integer("known_issue_id"),
+    events: integer("events").notNull(),
+    exposureMi: real("exposure_mi").notNull(),
+    rateRatio: real("rate_ratio"),
+    ratioLower: real("ratio_lower"),
+    ratioUpper: real("ratio_upper"),
+    qValue: real("q_value"),
+  },
+  (t) => [
+    uniqueIndex("signals_org_cell").on(t.organisationId, t.cellKey),
+    index("signals_org_state").on(t.organisationId, t.state),
+  ],
+);

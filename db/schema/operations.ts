@@ -1,0 +1,157 @@
+import { integer, sqliteTable, text, index, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { createdAt, id } from "./columns";
+import { organisations, users } from "./organisations";
+
+export const IMPORT_KINDS = [
+  "vehicles",
+  "repairs",
+  "faults",
+  "fuel",
+  "parts",
+  "generations",
+] as const;
+export type ImportKind = (typeof IMPORT_KINDS)[number];
+
+export const IMPORT_STATUSES = [
+  "uploaded",
+  "queued",
+  "importing",
+  "done",
+  "failed",
+  "undone",
+] as const;
+export type ImportStatus = (typeof IMPORT_STATUSES)[number];
+
+const orgRef = () =>
+  integer("organisation_id")
+    .notNull()
+    .references(() => organisations.id, { onDelete: "cascade" });
+
+export const imports = sqliteTable(
+  "imports",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    kind: text("kind", { enum: IMPORT_KINDS }).notNull(),
+    fileName: text("file_name").notNull(),
+    storedPath: text("stored_path").notNull(),
+    sha256: text("sha256").notNull(),
+    sizeBytes: integer("size_bytes").notNull(),
+    status: text("status", { enum: IMPORT_STATUSES }).notNull().default("uploaded"),
+    /** Column mapping and reading options used, as JSON. */
+    options: text("options", { mode: "json" }),
+    rowsTotal: integer("rows_total").notNull().default(0),
+    rowsImported: integer("rows_imported").notNull().default(0),
+    rowsRejected: integer("rows_rejected").notNull().default(0),
+    vehiclesCreated: integer("vehicles_created").notNull().default(0),
+    error: text("error"),
+    createdBy: integer("created_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    finishedAt: text("finished_at"),
+    undoneAt: text("undone_at"),
+  },
+  (t) => [
+    index("imports_org_created").on(t.organisationId, t.createdAt),
+    index("imports_org_hash").on(t.organisationId, t.sha256),
+  ],
+);
+
+export const importRejects = sqliteTable(
+  "import_rejects",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    importId: integer("import_id")
+      .notNull()
+      .references(() => imports.id, { onDelete: "cascade" }),
+    rowNumber: integer("row_number").notNull(),
+    reason: text("reason").notNull(),
+    raw: text("raw"),
+  },
+  (t) => [index("import_rejects_import").on(t.importId, t.rowNumber)],
+);
+
+/** Remembered column mapping per organisation and data kind. */
+export const columnMappings = sqliteTable(
+  "column_mappings",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    kind: text("kind", { enum: IMPORT_KINDS }).notNull(),
+    mapping: text("mapping", { mode: "json" }).notNull(),
+    updatedAt: createdAt(),
+  },
+  (t) => [uniqueIndex("column_mappings_org_kind").on(t.organisationId, t.kind)],
+);
+
+export const JOB_STATUSES = ["queued", "running", "done", "failed"] as const;
+export type JobStatus = (typeof JOB_STATUSES)[number];
+
+/**
+ * Work queue shared by every worker. A worker claims a job by setting leaseOwner and
+ * leaseExpiresAt (epoch ms) in one UPDATE; an expired lease makes the job claimable again.
+ */
+export const jobs = sqliteTable(
+  "jobs",
+  {
+    id: id(),
+    organisationId: integer("organisation_id").references(() => organisations.id, {
+      onDelete: "cascade",
+    }),
+    kind: text("kind").notNull(),
+    payload: text("payload", { mode: "json" }),
+    status: text("status", { enum: JOB_STATUSES }).notNull().default("queued"),
+    runAfter: integer("run_after").notNull(),
+    attempts: integer("attempts").notNull().default(0),
+    maxAttempts: integer("max_attempts").notNull().default(3),
+    leaseOwner: text("lease_owner"),
+    leaseExpiresAt: integer("lease_expires_at"),
+    progress: integer("progress"),
+    lastError: text("last_error"),
+    createdAt: createdAt(),
+    finishedAt: text("finished_at"),
+  },
+  (t) => [
+    index("jobs_claim").on(t.status, t.runAfter),
+    index("jobs_org").on(t.organisationId, t.createdAt),
+  ],
+);
+
+export const EMAIL_STATUSES = ["queued", "sent", "failed"] as const;
+
+export const emailOutbox = sqliteTable(
+  "email_outbox",
+  {
+    id: id(),
+    organisationId: integer("organisation_id").references(() => organisations.id, {
+      onDelete: "cascade",
+    }),
+    toAddress: text("to_address").notNull(),
+    subject: text("subject").notNull(),
+    textBody: text("text_body").notNull(),
+    htmlBody: text("html_body"),
+    status: text("status", { enum: EMAIL_STATUSES }).notNull().default("queued"),
+    attempts: integer("attempts").notNull().default(0),
+    lastError: text("last_error"),
+    createdAt: createdAt(),
+    sentAt: text("sent_at"),
+  },
+  (t) => [index("email_outbox_status").on(t.status, t.createdAt)],
+);
+
+export const auditLog = sqliteTable(
+  "audit_log",
+  {
+    id: id(),
+    organisationId: integer("organisation_id").references(() => organisations.id, {
+      onDelete: "cascade",
+    }),
+    userId: integer("user_id").references(() => users.id, { onDelete: "set null" }),
+    action: text("action").notNull(),
+    entity: text("entity").notNull(),
+    entityId: text("entity_id"),
+    detail: text("detail", { mode: "json" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("audit_log_org_created").on(t.organisationId, t.createdAt)],
+);

@@ -1,0 +1,205 @@
+/**
+ * Recurra's command line: `npm run recurra -- <command>`. With --json a command prints one JSON
+ * document on stdout (also on failure: { ok: false, error }); logs always go to stderr.
+ */
+import { randomBytes } from "node:crypto";
+import { Command, Option } from "commander";
+import { z } from "zod";
+import { getDatabase } from "@/db";
+import { migrateDatabase } from "@/db/migrate";
+import { addUserToOrganisation, createOrganisation, listOrganisations } from "@/db/queries/system";
+import { DISTANCE_UNITS, ORGANISATION_KINDS, ROLES } from "@/db/schema";
+import { loadReferenceData } from "@/db/seed/reference";
+import { loadDemo } from "@/db/seed/demo";
+import { MIN_PASSWORD_LENGTH } from "@/lib/auth/password";
+
+type Output = { json?: boolean };
+
+const log = (msg: string) => process.stderr.write(`${msg}\n`);
+
+/** Runs one command: prints its result (JSON or text) and sets the exit code. */
+function action<A extends unknown[]>(fn: (...args: A) => Promise<{ data: unknown; text: string }>) {
+  return async (...args: A) => {
+    const cmd = args.at(-1) as Command;
+    const opts = cmd.optsWithGlobals<Output>();
+    try {
+      const { data, text } = await fn(...args);
+      process.stdout.write(
+        opts.json ? `${JSON.stringify({ ok: true, ...(data as object) })}\n` : `${text}\n`,
+      );
+    } catch (e) {
+      const message =
+        e instanceof z.ZodError ? z.prettifyError(e) : e instanceof Error ? e.message : String(e);
+      if (opts.json) process.stdout.write(`${JSON.stringify({ ok: false, error: message })}\n`);
+      log(`error: ${message}`);
+      process.exitCode = 1;
+    } finally {
+      (await getDatabase()).client.close();
+    }
+  };
+}
+
+/** Opens DATABASE_URL and brings it to the current schema (and reference data). */
+async function openMigrated() {
+  const { db } = await getDatabase();
+  await migrateDatabase(db);
+  await loadReferenceData(db);
+  return db;
+}
+
+const Slug = z
+  .string()
+  .regex(/^[a-z0-9][a-z0-9-]{1,39}$/, "A slug is 2–40 lower-case letters, digits or dashes.");
+
+export function buildProgram(): Command {
+  const program = new Command("recurra")
+    .description("Recurra command line")
+    .option("--json", "print one JSON document on stdout")
+    .showHelpAfterError();
+
+  const db = program.command("db").description("database");
+  db.command("migrate")
+    .description("apply committed migrations and load reference data")
+    .action(
+      action(async () => {
+        await openMigrated();
+        return { data: { migrated: true }, text: "Database is up to date." };
+      }),
+    );
+
+  const org = program.command("org").description("organisations");
+  org
+    .command("create <slug>")
+    .description("create an organisation")
+    .requiredOption("--name <name>", "display name")
+    .addOption(
+      new Option("--kind <kind>", "fleet or shop").choices(ORGANISATION_KINDS).default("fleet"),
+    )
+    .addOption(new Option("--unit <unit>", "distance unit").choices(DISTANCE_UNITS).default("mi"))
+    .action(
+      action(
+        async (slug: string, opts: { name: string; kind: "fleet" | "shop"; unit: "mi" | "km" }) => {
+          const created = await createOrganisation(await openMigrated(), {
+            slug: Slug.parse(slug),
+            name: z.string().trim().min(2).max(120).parse(opts.name),
+            kind: opts.kind,
+            distanceUnit: opts.unit,
+          });
+          return {
+            data: {
+              organisation: {
+                id: created.id,
+                slug: created.slug,
+                name: created.name,
+                kind: created.kind,
+              },
+            },
+            text: `Created organisation ${created.slug} (${created.name}).`,
+          };
+        },
+      ),
+    );
+  org
+    .command("list")
+    .description("list organisations")
+    .action(
+      action(async () => {
+        const rows = await listOrganisations(await openMigrated());
+        const organisations = rows.map((r) => ({
+          ...r,
+          members: Number(r.members),
+          vehicles: Number(r.vehicles),
+        }));
+        return {
+          data: { organisations },
+          text:
+            organisations
+              .map(
+                (o) =>
+                  `${o.slug.padEnd(20)} ${o.kind.padEnd(6)} ${String(o.vehicles).padStart(6)} vehicles  ${o.name}`,
+              )
+              .join("\n") || "No organisations yet.",
+        };
+      }),
+    );
+
+  const user = program.command("user").description("users");
+  user
+    .command("add")
+    .description("add a user to an organisation (creates the account if new)")
+    .requiredOption("--org <slug>", "organisation slug")
+    .addOption(new Option("--role <role>", "role").choices(ROLES).makeOptionMandatory())
+    .requiredOption("--email <email>", "e-mail address")
+    .option("--name <name>", "display name")
+    .option(
+      "--password <password>",
+      "password (or RECURRA_PASSWORD; generated when both are missing)",
+    )
+    .action(
+      action(
+        async (opts: {
+          org: string;
+          role: (typeof ROLES)[number];
+          email: string;
+          name?: string;
+          password?: string;
+        }) => {
+          const given = opts.password ?? process.env.RECURRA_PASSWORD;
+          if (given !== undefined && given.length < MIN_PASSWORD_LENGTH) {
+            throw new Error(`A password has at least ${MIN_PASSWORD_LENGTH} characters.`);
+          }
+          const email = z.email("Not an e-mail address.").parse(opts.email.trim().toLowerCase());
+          // A generated password is only set (and printed, once) when the account is new.
+          const password = given ?? randomBytes(12).toString("base64url");
+          const result = await addUserToOrganisation(await openMigrated(), {
+            organisationSlug: opts.org,
+            email,
+            name: opts.name,
+            role: opts.role,
+            password,
+            isPasswordForNewUserOnly: given === undefined,
+          });
+          const generated = given === undefined && result.isNewUser ? password : undefined;
+          return {
+            data: {
+              user: { id: result.user.id, email: result.user.email, name: result.user.name },
+              organisation: opts.org,
+              role: result.role,
+              isNewUser: result.isNewUser,
+              ...(generated ? { generatedPassword: generated } : {}),
+            },
+            text:
+              `${result.isNewUser ? "Created" : "Updated"} ${result.user.email} as ${result.role} in ${opts.org}.` +
+              (generated ? `\nGenerated password (shown once): ${generated}` : ""),
+          };
+        },
+      ),
+    );
+
+  const demo = program.command("demo").description("invented demo scenario");
+  demo
+    .command("load")
+    .description("load the demo organisations, accounts and data (skips when already loaded)")
+    .option("--reset", "delete the demo organisations and load them again")
+    .option("--seed <n>", "random seed", (v) => z.coerce.number().int().parse(v))
+    .action(
+      action(async (opts: { reset?: boolean; seed?: number }) => {
+        const summary = await loadDemo(await openMigrated(), {
+          reset: opts.reset,
+          seed: opts.seed,
+          log,
+        });
+        const lines = summary.organisations.map(
+          (o) =>
+            `  ${o.slug}: ${o.vehicles} vehicles, ${o.repairOrders} repair orders, ${o.faultEvents} fault events, ${o.fuelTransactions} fill-ups`,
+        );
+        return {
+          data: summary,
+          text: `${summary.status === "loaded" ? "Demo loaded" : "Demo already loaded (use --reset to reload)"} in ${(summary.millis / 1000).toFixed(1)} s\n${lines.join("\n")}`,
+        };
+      }),
+    );
+  return program;
+}
+
+await buildProgram().parseAsync(process.argv);

@@ -1,0 +1,18 @@
+/** Exact conversion factor, NIST SP 811 (1 mi = 1.609344 km). */
+export const KM_PER_MILE = 1.609344;
+/** Exact, NIST SP 811. */
+export const LITRES_PER_US_GALLON = 3.785411784;
+export const LITRES_PER_IMPERIAL_GALLON = 4.54609;
+
+export function milesToUnit(miles: number, unit: "mi" | "km"): number {
+  return unit === "km" ? miles * KM_PER_MILE : miles;
+}
+
+export function unitToMiles(value: number, unit: "mi" | "km"): number {
+  return unit === "km" ? value / KM_PER_MILE : value;
+}
+
+/** "48,210 mi" — whole units, grouped thousands. */
+export function formatDistance(miles: number, unit: "mi" | "km"): string {
+  return `${Math.round(milesToUnit(miles, unit)).toLocaleString("en-GB")} ${unit}`;
+}

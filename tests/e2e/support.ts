@@ -1,0 +1,64 @@
+import { createClient } from "@libsql/client";
+import { test as base, expect, type Page } from "@playwright/test";
+
+export const PASSWORD = "recurra-demo";
+export const ACCOUNTS = {
+  admin: "admin@recurra.example",
+  manager: "manager@recurra.example",
+  technician: "technician@recurra.example",
+  viewer: "viewer@recurra.example",
+} as const;
+export type DemoRole = keyof typeof ACCOUNTS;
+
+/** Console errors that a test provokes on purpose (a 403 or 404 page) are not failures. */
+const EXPECTED_CONSOLE =
+  /Failed to load resource: the server responded with a status of (401|403|404)/;
+
+export const test = base.extend<{ consoleErrors: string[] }>({
+  baseURL: async ({}, use) => use(process.env.E2E_BASE_URL),
+  consoleErrors: [
+    async ({ page }, use) => {
+      const errors: string[] = [];
+      page.on("console", (msg) => {
+        if (msg.type() === "error" && !EXPECTED_CONSOLE.test(msg.text())) errors.push(msg.text());
+      });
+      page.on("pageerror", (err) => errors.push(err.message));
+      await use(errors);
+      expect(errors, "browser console errors").toEqual([]);
+    },
+    { auto: true },
+  ],
+});
+export { expect };
+
+export async function signIn(page: Page, role: DemoRole, password = PASSWORD) {
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(ACCOUNTS[role]);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((url) => url.pathname === "/");
+  await expect(page.getByTestId("who")).toBeVisible();
+}
+
+export async function screenshot(page: Page, name: string) {
+  await page.screenshot({ path: `test-results/screens/${name}.png`, fullPage: true });
+}
+
+/** Reads the test database directly, to compare what pages show with what is stored. */
+export async function queryDb<T>(sql: string, args: (string | number)[] = []): Promise<T[]> {
+  const client = createClient({ url: process.env.DATABASE_URL ?? "" });
+  try {
+    const rs = await client.execute({ sql, args });
+    return rs.rows as unknown as T[];
+  } finally {
+    client.close();
+  }
+}
+
+export async function orgId(slug: string): Promise<number> {
+  const [row] = await queryDb<{ id: number }>("select id from organisations where slug = ?", [
+    slug,
+  ]);
+  if (!row) throw new Error(`no organisation ${slug}`);
+  return Number(row.id);
+}

@@ -1,0 +1,152 @@
+import { execFile } from "node:child_process";
+import { mkdtempSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { promisify } from "node:util";
+import { describe, expect, test } from "vitest";
+
+const run = promisify(execFile);
+const dir = mkdtempSync(join(tmpdir(), "recurra-cli-"));
+const env = { ...process.env, DATABASE_URL: `file:${join(dir, "cli.db")}`, RECURRA_DATA_DIR: dir };
+
+/** Runs `npm run recurra -- …` the way a user does, returning exit code, stdout and stderr. */
+async function recurra(...args: string[]) {
+  try {
+    const { stdout, stderr } = await run(
+      "npx",
+      ["tsx", "--conditions=react-server", "jobs/cli.ts", ...args],
+      {
+        env,
+      },
+    );
+    return { code: 0, stdout, stderr };
+  } catch (e) {
+    const err = e as { code: number; stdout: string; stderr: string };
+    return { code: err.code, stdout: err.stdout, stderr: err.stderr };
+  }
+}
+
+/** With --json, stdout holds exactly one JSON document. */
+function json(stdout: string) {
+  const lines = stdout.trim().split("\n");
+  expect(lines).toHaveLength(1);
+  return JSON.parse(lines[0] ?? "") as Record<string, unknown>;
+}
+
+describe("command line", () => {
+  test("org create, org list and user add, with --json", async () => {
+    const created = await recurra(
+      "org",
+      "create",
+      "harbour-vans",
+      "--name",
+      "Harbour Vans",
+      "--kind",
+      "fleet",
+      "--json",
+    );
+    expect(created.code).toBe(0);
+    expect(json(created.stdout)).toMatchObject({
+      ok: true,
+      organisation: { slug: "harbour-vans", kind: "fleet" },
+    });
+
+    const again = await recurra(
+      "org",
+      "create",
+      "harbour-vans",
+      "--name",
+      "Harbour Vans",
+      "--json",
+    );
+    expect(again.code).toBe(1);
+    expect(json(again.stdout)).toEqual({
+      ok: false,
+      error: 'An organisation with slug "harbour-vans" exists.',
+    });
+
+    const bad = await recurra("org", "create", "Not A Slug", "--name", "X", "--json");
+    expect(bad.code).toBe(1);
+    expect(json(bad.stdout).error).toMatch(/lower-case/);
+
+    const user = await recurra(
+      "user",
+      "add",
+      "--org",
+      "harbour-vans",
+      "--role",
+      "technician",
+      "--email",
+      "Tech@Harbour.example",
+      "--json",
+    );
+    expect(user.code).toBe(0);
+    const u = json(user.stdout);
+    expect(u).toMatchObject({
+      ok: true,
+      role: "technician",
+      isNewUser: true,
+      user: { email: "tech@harbour.example" },
+    });
+    expect(String(u.generatedPassword)).toMatch(/^[A-Za-z0-9_-]{16}$/);
+
+    // Adding the same person again changes the role and keeps the password (none printed).
+    const promoted = await recurra(
+      "user",
+      "add",
+      "--org",
+      "harbour-vans",
+      "--role",
+      "manager",
+      "--email",
+      "tech@harbour.example",
+      "--json",
+    );
+    expect(json(promoted.stdout)).toMatchObject({ ok: true, role: "manager", isNewUser: false });
+    expect(json(promoted.stdout)).not.toHaveProperty("generatedPassword");
+
+    const short = await recurra(
+      "user",
+      "add",
+      "--org",
+      "harbour-vans",
+      "--role",
+      "viewer",
+      "--email",
+      "v@harbour.example",
+      "--password",
+      "short",
+      "--json",
+    );
+    expect(short.code).toBe(1);
+    expect(json(short.stdout).error).toMatch(/at least 10 characters/);
+
+    const list = await recurra("org", "list", "--json");
+    const orgs = json(list.stdout).organisations as {
+      slug: string;
+      members: number;
+      vehicles: number;
+    }[];
+    expect(orgs).toEqual([
+      expect.objectContaining({ slug: "harbour-vans", members: 1, vehicles: 0 }),
+    ]);
+
+    const text = await recurra("org", "list");
+    expect(text.stdout).toMatch(/harbour-vans\s+fleet\s+0 vehicles\s+Harbour Vans/);
+  });
+
+  test("an unknown role is refused by the argument parser", async () => {
+    const r = await recurra(
+      "user",
+      "add",
+      "--org",
+      "x",
+      "--role",
+      "owner",
+      "--email",
+      "a@b.example",
+    );
+    expect(r.code).not.toBe(0);
+    expect(r.stderr).toMatch(/Allowed choices are admin, manager, technician, viewer/);
+  });
+});
