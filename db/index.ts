@@ -5,7 +5,7 @@ import { drizzle, type LibSQLDatabase } from "drizzle-orm/libsql";
 import { getEnv } from "@/lib/env";
 import * as schema from "./schema";
 
-export type Db = LibSQLDatabase<typeof schema>;
+export type Db = LibSQLDatabase<typeof schema> & { $client: Client };
 /** A database handle or an open transaction: data-layer functions accept either. */
 export type DbOrTx = Db | Parameters<Parameters<Db["transaction"]>[0]>[0];
 

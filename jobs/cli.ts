@@ -3,12 +3,32 @@
  * document on stdout (also on failure: { ok: false, error }); logs always go to stderr.
  */
 import { randomBytes } from "node:crypto";
+import { createReadStream } from "node:fs";
+import { readFile } from "node:fs/promises";
+import { basename } from "node:path";
 import { Command, Option } from "commander";
 import { z } from "zod";
 import { getDatabase } from "@/db";
 import { migrateDatabase } from "@/db/migrate";
-import { addUserToOrganisation, createOrganisation, listOrganisations } from "@/db/queries/system";
-import { DISTANCE_UNITS, ORGANISATION_KINDS, ROLES } from "@/db/schema";
+import { cancelImport, getImport, startImport } from "@/db/queries/imports";
+import {
+  addUserToOrganisation,
+  createOrganisation,
+  findOrganisationBySlug,
+  listOrganisations,
+} from "@/db/queries/system";
+import {
+  DISTANCE_UNITS,
+  IMPORT_KINDS,
+  ORGANISATION_KINDS,
+  ROLES,
+  type ImportKind,
+} from "@/db/schema";
+import { mappingByName } from "@/jobs/import/inspect";
+import { mappingToIndexes } from "@/jobs/import/run-import";
+import { validateMapping } from "@/lib/import";
+import { receiveUpload } from "@/jobs/import/upload";
+import { startWorker } from "@/jobs/worker";
 import { loadReferenceData } from "@/db/seed/reference";
 import { loadDemo } from "@/db/seed/demo";
 import { MIN_PASSWORD_LENGTH } from "@/lib/auth/password";
@@ -174,6 +194,73 @@ export function buildProgram(): Command {
           };
         },
       ),
+    );
+
+  program
+    .command("import <file>")
+    .description("import a CSV file (same path as an upload in the browser)")
+    .requiredOption("--org <slug>", "organisation slug")
+    .addOption(new Option("--kind <kind>", "data kind").choices(IMPORT_KINDS).makeOptionMandatory())
+    .option("--mapping <file.json>", "column mapping: { canonical column: header in the file }")
+    .action(
+      action(async (file: string, opts: { org: string; kind: ImportKind; mapping?: string }) => {
+        const started = performance.now();
+        const db = await openMigrated();
+        const org = await findOrganisationBySlug(db, opts.org);
+        // The command line acts for the organisation with an admin's rights, as its operator.
+        const scope = { organisationId: org.id, userId: null, role: "admin" as const };
+        const { importId, inspection } = await receiveUpload(db, scope, {
+          kind: opts.kind,
+          fileName: basename(file),
+          source: createReadStream(file),
+        });
+        // A file that cannot be imported as given is cancelled, so it can be uploaded again.
+        const abandon = async (message: string) => {
+          await cancelImport(db, scope, importId);
+          return new Error(message);
+        };
+        let mapping = mappingByName(inspection.headers, inspection.mapping);
+        if (opts.mapping) {
+          const given = z
+            .record(z.string(), z.string().nullable())
+            .parse(JSON.parse(await readFile(opts.mapping, "utf8")));
+          mapping = { ...mapping, ...given };
+          const problems = validateMapping(
+            opts.kind,
+            inspection.headers,
+            mappingToIndexes(inspection.headers, mapping),
+          );
+          if (problems.length) throw await abandon(problems.join(" "));
+        }
+        const blocking = inspection.problems.filter(
+          (p) => !opts.mapping || !/column|required/i.test(p),
+        );
+        if (blocking.length) throw await abandon(blocking.join(" "));
+        for (const notice of [...inspection.notices, ...inspection.readNotes]) log(notice);
+        const { jobId } = await startImport(db, scope, importId, {
+          delimiter: inspection.delimiter,
+          headers: inspection.headers,
+          mapping,
+          read: inspection.read,
+        });
+        await startWorker({ db, jobId, isOneShot: true, log });
+        const result = await getImport(db, scope, importId);
+        if (result.status !== "done")
+          throw new Error(`Import ${importId} ${result.status}: ${result.error ?? ""}`);
+        const summary = {
+          importId,
+          rows: result.rowsTotal,
+          imported: result.rowsImported,
+          duplicates: result.rowsDuplicate,
+          warnings: result.rowsWarning,
+          rejected: result.rowsRejected,
+          seconds: Math.round((performance.now() - started) / 10) / 100,
+        };
+        return {
+          data: summary,
+          text: `Import ${importId}: ${summary.rows} rows, ${summary.imported} imported, ${summary.duplicates} duplicates, ${summary.warnings} with warnings, ${summary.rejected} rejected (${summary.seconds} s)`,
+        };
+      }),
     );
 
   const demo = program.command("demo").description("invented demo scenario");

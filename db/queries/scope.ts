@@ -71,3 +71,20 @@ export async function countRows(
     .where(where);
   return Number(row?.n ?? 0);
 }
+
+/** Whether an error (or its cause, as Drizzle wraps driver errors) is a unique-index violation. */
+export function isUniqueViolation(e: unknown): boolean {
+  for (
+    let err = e as { message?: string; code?: string; cause?: unknown } | undefined, depth = 0;
+    err && depth < 5;
+    depth++
+  ) {
+    if (
+      err.code === "SQLITE_CONSTRAINT_UNIQUE" ||
+      /UNIQUE constraint failed/.test(err.message ?? "")
+    )
+      return true;
+    err = err.cause as typeof err;
+  }
+  return false;
+}

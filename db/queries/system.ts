@@ -123,3 +123,9 @@ export async function addUserToOrganisation(
     return { user, organisationId: org.id, role: input.role, isNewUser };
   });
 }
+
+export async function findOrganisationBySlug(db: Db, slug: string) {
+  const [org] = await db.select().from(organisations).where(eq(organisations.slug, slug)).limit(1);
+  if (!org) throw new NotFoundError(`No organisation with slug "${slug}".`);
+  return org;
+}

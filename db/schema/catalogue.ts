@@ -15,6 +15,7 @@ export const generations = sqliteTable(
     label: text("label").notNull(),
     yearFrom: integer("year_from").notNull(),
     yearTo: integer("year_to").notNull(),
+    importId: integer("import_id"),
     createdAt: createdAt(),
   },
   (t) => [

@@ -6,3 +6,4 @@ export * from "./parts";
 export * from "./known-issues";
 export * from "./analysis";
 export * from "./operations";
+export * from "./staging";

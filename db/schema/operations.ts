@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { integer, sqliteTable, text, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { createdAt, id } from "./columns";
 import { organisations, users } from "./organisations";
@@ -12,12 +13,19 @@ export const IMPORT_KINDS = [
 ] as const;
 export type ImportKind = (typeof IMPORT_KINDS)[number];
 
+/**
+ * uploaded: file stored, waiting for the column mapping · queued: waiting for a worker ·
+ * reading: rows being parsed, checked and staged · applying: staged rows moving into the data
+ * in one atomic step · done · failed (file kept) · cancelled · undone.
+ */
 export const IMPORT_STATUSES = [
   "uploaded",
   "queued",
-  "importing",
+  "reading",
+  "applying",
   "done",
   "failed",
+  "cancelled",
   "undone",
 ] as const;
 export type ImportStatus = (typeof IMPORT_STATUSES)[number];
@@ -40,19 +48,30 @@ export const imports = sqliteTable(
     status: text("status", { enum: IMPORT_STATUSES }).notNull().default("uploaded"),
     /** Column mapping and reading options used, as JSON. */
     options: text("options", { mode: "json" }),
+    bytesRead: integer("bytes_read").notNull().default(0),
     rowsTotal: integer("rows_total").notNull().default(0),
     rowsImported: integer("rows_imported").notNull().default(0),
+    rowsDuplicate: integer("rows_duplicate").notNull().default(0),
+    rowsWarning: integer("rows_warning").notNull().default(0),
     rowsRejected: integer("rows_rejected").notNull().default(0),
     vehiclesCreated: integer("vehicles_created").notNull().default(0),
     error: text("error"),
+    jobId: integer("job_id"),
     createdBy: integer("created_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(),
+    startedAt: text("started_at"),
     finishedAt: text("finished_at"),
+    cancelRequestedAt: text("cancel_requested_at"),
     undoneAt: text("undone_at"),
+    undoneBy: integer("undone_by").references(() => users.id, { onDelete: "set null" }),
   },
   (t) => [
     index("imports_org_created").on(t.organisationId, t.createdAt),
-    index("imports_org_hash").on(t.organisationId, t.sha256),
+    // The same file cannot be live twice in one organisation: a second upload (even at the
+    // same moment) is refused, while a failed, cancelled or undone one may be tried again.
+    uniqueIndex("imports_org_live_hash")
+      .on(t.organisationId, t.sha256)
+      .where(sql`status not in ('failed', 'cancelled', 'undone')`),
   ],
 );
 
@@ -65,6 +84,11 @@ export const importRejects = sqliteTable(
       .notNull()
       .references(() => imports.id, { onDelete: "cascade" }),
     rowNumber: integer("row_number").notNull(),
+    /** "rejected" rows were not imported; "warning" rows were, with a remark. */
+    severity: text("severity", { enum: ["rejected", "warning"] })
+      .notNull()
+      .default("rejected"),
+    column: text("column"),
     reason: text("reason").notNull(),
     raw: text("raw"),
   },

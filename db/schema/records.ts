@@ -1,4 +1,4 @@
-import { integer, real, sqliteTable, text, index } from "drizzle-orm/sqlite-core";
+import { integer, real, sqliteTable, text, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { cents, createdAt, id } from "./columns";
 import { components } from "./catalogue";
 import { organisations } from "./organisations";
@@ -52,8 +52,8 @@ export const repairOrders = sqliteTable(
   (t) => [
     // Leading vehicle_id also serves the foreign-key check when a vehicle is deleted.
     index("repair_orders_vehicle").on(t.vehicleId, t.openedOn),
+    // Also the duplicate check of imports (an RO number already present is not loaded twice).
     index("repair_orders_org_number").on(t.organisationId, t.roNumber),
-    index("repair_orders_org_opened").on(t.organisationId, t.openedOn),
     index("repair_orders_import").on(t.importId),
   ],
 );
@@ -95,8 +95,6 @@ export const repairLines = sqliteTable(
     index("repair_lines_order").on(t.repairOrderId),
     index("repair_lines_vehicle").on(t.vehicleId, t.odometerMi),
     index("repair_lines_org_component").on(t.organisationId, t.componentId),
-    index("repair_lines_org_symptom").on(t.organisationId, t.symptom),
-    index("repair_lines_import").on(t.importId),
   ],
 );
 
@@ -133,7 +131,8 @@ export const faultEvents = sqliteTable(
     importId: integer("import_id"),
   },
   (t) => [
-    index("fault_events_vehicle").on(t.vehicleId, t.occurredAt),
+    // Duplicate key of imports: one vehicle reports a code once at one moment.
+    uniqueIndex("fault_events_vehicle_time_dtc").on(t.vehicleId, t.occurredAt, t.dtc),
     index("fault_events_org_dtc").on(t.organisationId, t.dtc),
     index("fault_events_import").on(t.importId),
   ],
@@ -154,8 +153,8 @@ export const fuelTransactions = sqliteTable(
     importId: integer("import_id"),
   },
   (t) => [
-    index("fuel_vehicle_odometer").on(t.vehicleId, t.odometerMi),
-    index("fuel_vehicle_time").on(t.vehicleId, t.filledAt),
+    // Duplicate key of imports: one fill-up per vehicle and moment.
+    uniqueIndex("fuel_vehicle_time").on(t.vehicleId, t.filledAt),
     index("fuel_import").on(t.importId),
   ],
 );

@@ -42,3 +42,30 @@ export const vehicles = sqliteTable(
     index("vehicles_org_generation").on(t.organisationId, t.generationId),
   ],
 );
+
+export const ODOMETER_SOURCES = ["roster", "manual"] as const;
+
+/**
+ * Dated odometer readings that come with no repair, fault or fill-up: a roster import or a
+ * reading typed in. Exposure uses these together with the readings on every other record.
+ */
+export const odometerReadings = sqliteTable(
+  "odometer_readings",
+  {
+    id: id(),
+    organisationId: integer("organisation_id")
+      .notNull()
+      .references(() => organisations.id, { onDelete: "cascade" }),
+    vehicleId: integer("vehicle_id")
+      .notNull()
+      .references(() => vehicles.id, { onDelete: "cascade" }),
+    readOn: text("read_on").notNull(),
+    odometerMi: real("odometer_mi").notNull(),
+    source: text("source", { enum: ODOMETER_SOURCES }).notNull(),
+    importId: integer("import_id"),
+  },
+  (t) => [
+    index("odometer_readings_vehicle").on(t.vehicleId, t.readOn),
+    index("odometer_readings_import").on(t.importId),
+  ],
+);

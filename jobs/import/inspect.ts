@@ -1,0 +1,183 @@
+import { parse } from "csv-parse/sync";
+import type { ImportKind } from "@/db/schema";
+import {
+  autoMapHeaders,
+  checkCsvBytes,
+  createRowReader,
+  detectReadOptions,
+  guessKind,
+  IMPORT_COLUMNS,
+  sniffDelimiter,
+  stripBom,
+  validateMapping,
+  type ColumnMapping,
+  type CsvDelimiter,
+  type ReadOptions,
+} from "@/lib/import";
+import { HEAD_BYTES } from "./storage";
+
+export const PREVIEW_ROWS = 20;
+
+const KIND_WORDS: Record<ImportKind, string> = {
+  vehicles: "a vehicle roster",
+  repairs: "repair orders",
+  faults: "fault-code events",
+  fuel: "fuel-card transactions",
+  parts: "a parts list",
+  generations: "a generation catalogue",
+};
+
+export type Inspection = {
+  delimiter: CsvDelimiter;
+  headers: string[];
+  /** First rows as they will be read (raw cells). */
+  sampleRows: string[][];
+  mapping: ColumnMapping;
+  read: ReadOptions;
+  /** Why the reading options were chosen, and where they are a guess. */
+  readNotes: string[];
+  /** Problems that stop the import until fixed (mapping problems can be fixed on screen). */
+  problems: string[];
+  /** Worth knowing, not blocking (e.g. "this looks like a fuel file"). */
+  notices: string[];
+};
+
+/** Header names for a mapping, so it can be remembered across files with the same headers. */
+export function mappingByName(
+  headers: string[],
+  mapping: ColumnMapping,
+): Record<string, string | null> {
+  return Object.fromEntries(
+    Object.entries(mapping).map(([key, at]) => [key, at === null ? null : (headers[at] ?? null)]),
+  );
+}
+
+/**
+ * Looks at the head of an uploaded file: is it CSV text, which delimiter, the header row, the
+ * first rows, the automatic column mapping (overlaid with the organisation's remembered one),
+ * and the detected date format, decimal separator and units.
+ */
+export function inspectUpload(
+  head: Buffer,
+  kind: ImportKind,
+  opts: {
+    isTruncated: boolean;
+    remembered?: Record<string, string | null> | null;
+    defaults?: Partial<ReadOptions>;
+  },
+): Inspection {
+  // A head cut mid-file may end inside a character or a row: keep whole lines only.
+  const whole = opts.isTruncated ? head.subarray(0, Math.max(0, head.lastIndexOf(0x0a) + 1)) : head;
+  const empty: Inspection = {
+    delimiter: ",",
+    headers: [],
+    sampleRows: [],
+    mapping: {},
+    read: { dateFormat: "iso", decimalSeparator: ".", distanceUnit: "mi", volumeUnit: "us-gal" },
+    readNotes: [],
+    problems: [],
+    notices: [],
+  };
+  const check = checkCsvBytes(whole);
+  if (!check.ok) return { ...empty, problems: [check.message] };
+  const text = stripBom(whole.toString("utf8"));
+  if (text.trim() === "") return { ...empty, problems: ["The file is empty."] };
+  const delimiter = sniffDelimiter(text.slice(0, 64 * 1024));
+  let records: string[][];
+  try {
+    records = parse(text, {
+      delimiter,
+      relax_column_count: true,
+      relax_quotes: true,
+      skip_empty_lines: true,
+      to: PREVIEW_ROWS + 1,
+      max_record_size: 1_000_000,
+    }) as string[][];
+  } catch (e) {
+    const code = (e as { code?: string }).code;
+    const message =
+      code === "CSV_QUOTE_NOT_CLOSED"
+        ? 'A quoted field near the top of the file is never closed (a missing ").'
+        : code === "CSV_MAX_RECORD_SIZE"
+          ? "The first row is longer than 1,000,000 characters; is this really a CSV file?"
+          : `The top of the file cannot be read as CSV: ${(e as Error).message}`;
+    return { ...empty, delimiter, problems: [message] };
+  }
+  const headers = (records[0] ?? []).map((h) => h.trim());
+  const sampleRows = records.slice(1);
+  const auto = autoMapHeaders(kind, headers);
+  const mapping: ColumnMapping = { ...auto.mapping };
+  for (const [key, name] of Object.entries(opts.remembered ?? {})) {
+    const at = name === null ? -1 : headers.indexOf(name);
+    if (key in mapping && at >= 0) mapping[key] = at;
+  }
+  const problems: string[] = [];
+  const notices: string[] = [];
+  for (const name of auto.duplicateHeaders) {
+    problems.push(
+      `The header row has “${name}” more than once. Rename one copy so it is clear which to read.`,
+    );
+  }
+  problems.push(...validateMapping(kind, headers, mapping).filter((p) => !problems.includes(p)));
+  if (sampleRows.length === 0)
+    notices.push("The file has a header row but no data rows in its first part.");
+  const best = guessKind(headers)[0];
+  if (
+    best &&
+    best.kind !== kind &&
+    best.missingRequired.length === 0 &&
+    auto.missingRequired.length > 0
+  ) {
+    notices.push(
+      `This looks like ${KIND_WORDS[best.kind]}, not ${KIND_WORDS[kind]}. Check the kind you chose.`,
+    );
+  }
+  const detected = detectReadOptions(kind, headers, sampleRows, mapping, opts.defaults);
+  const readNotes = [...detected.reasons];
+  return {
+    delimiter,
+    headers,
+    sampleRows,
+    mapping,
+    read: detected.options,
+    readNotes,
+    problems,
+    notices,
+  };
+}
+
+/** The canonical columns of a kind, for the mapping screen. */
+export function columnsOf(kind: ImportKind) {
+  return IMPORT_COLUMNS[kind].map((c) => ({
+    key: c.key,
+    label: c.label,
+    isRequired: c.isRequired,
+  }));
+}
+
+export { HEAD_BYTES };
+
+export type PreviewRow =
+  | { rowNumber: number; ok: true; values: Record<string, unknown>; warnings: string[] }
+  | { rowNumber: number; ok: false; issues: string[] };
+
+/** The first rows as the import will read them with this mapping and these options. */
+export function previewRows(
+  kind: ImportKind,
+  inspection: Pick<Inspection, "headers" | "sampleRows">,
+  mapping: ColumnMapping,
+  read: ReadOptions,
+): PreviewRow[] {
+  const reader = createRowReader(kind, inspection.headers, mapping, read);
+  return inspection.sampleRows.map((record, i) => {
+    const result = reader(record, i + 2);
+    return result.ok
+      ? {
+          rowNumber: result.rowNumber,
+          ok: true,
+          values: result.row as Record<string, unknown>,
+          warnings: result.warnings.map((w) => w.message),
+        }
+      : { rowNumber: result.rowNumber, ok: false, issues: result.issues.map((w) => w.message) };
+  });
+}

@@ -1,0 +1,347 @@
+import { createReadStream } from "node:fs";
+import { Transform } from "node:stream";
+import { parse } from "csv-parse";
+import { eq } from "drizzle-orm";
+import type { Db } from "@/db";
+import { componentAliases, components, vehicles, type ImportKind } from "@/db/schema";
+import {
+  buildComponentIndex,
+  createRowReader,
+  needsVehicleKey,
+  type ColumnMapping,
+  type ReadOptions,
+  type RowIssue,
+  type TypedRow,
+} from "@/lib/import";
+import { PermanentJobError } from "../errors";
+import { fingerprint52, FingerprintSet } from "./fingerprint-set";
+import { OdometerChecks } from "./odometer-checks";
+import { insertStatements, type SqlValue } from "./sql-literal";
+import { readingDate, STAGING } from "./stage-rows";
+
+/** Rows per staging commit: large enough to be fast, small enough for a lively progress bar. */
+const FLUSH_ROWS = 5_000;
+/** Warnings kept for the report (all are counted). */
+const MAX_STORED_WARNINGS = 50_000;
+const MAX_RECORD_CHARS = 1_000_000;
+
+export type ReadResult = {
+  rowsTotal: number;
+  staged: number;
+  rejected: number;
+  warnings: number;
+  duplicatesInFile: number;
+  isCancelled: boolean;
+};
+
+type Issue = {
+  rowNumber: number;
+  severity: "rejected" | "warning";
+  column: string;
+  reason: string;
+  raw: string;
+};
+
+export type ReadInput = {
+  kind: ImportKind;
+  organisationId: number;
+  importId: number;
+  path: string;
+  delimiter: string;
+  headers: string[];
+  mapping: ColumnMapping;
+  read: ReadOptions;
+  /** Called after each committed chunk; false stops the import (cancel, lost lease). */
+  shouldContinue: () => Promise<boolean>;
+};
+
+/** A file error the user must fix (not worth a retry). */
+function fileError(message: string): PermanentJobError {
+  return new PermanentJobError(message);
+}
+
+/** Decodes UTF-8 strictly, so a file that turns out not to be UTF-8 further down is refused. */
+function strictUtf8(): Transform {
+  const decoder = new TextDecoder("utf-8", { fatal: true });
+  return new Transform({
+    readableObjectMode: false,
+    transform(chunk: Buffer, _enc, done) {
+      try {
+        done(null, decoder.decode(chunk, { stream: true }));
+      } catch {
+        done(
+          fileError(
+            "Part of the file is not UTF-8 text. Save it as CSV (UTF-8) and upload it again.",
+          ),
+        );
+      }
+    },
+    flush(done) {
+      try {
+        done(null, decoder.decode());
+      } catch {
+        done(fileError("The file ends in the middle of a character: it is not valid UTF-8 text."));
+      }
+    },
+  });
+}
+
+/** Turns csv-parse errors into messages about the file. */
+function describeParseError(e: unknown, rowNumber: number): Error {
+  const err = e as { code?: string; message?: string; lines?: number };
+  const where = `row ${rowNumber}`;
+  switch (err.code) {
+    case "CSV_QUOTE_NOT_CLOSED":
+      return fileError(`A quoted field that starts near ${where} is never closed (a missing ").`);
+    case "CSV_MAX_RECORD_SIZE":
+      return fileError(
+        `A row near ${where} is longer than ${MAX_RECORD_CHARS.toLocaleString("en-GB")} characters; is this really a CSV file?`,
+      );
+    case "CSV_INVALID_CLOSING_QUOTE":
+    case "CSV_NON_TRIMABLE_CHAR_AFTER_CLOSING_QUOTE":
+      return fileError(
+        `A quote in the middle of a field near ${where} cannot be read. Quote fields with " and double quotes inside them.`,
+      );
+    default:
+      return e instanceof PermanentJobError
+        ? e
+        : fileError(`The file could not be read near ${where}: ${err.message ?? String(e)}`);
+  }
+}
+
+/**
+ * Reads an import's file as a stream (never the whole file in memory), checks every row and
+ * writes the good ones to the staging table in committed chunks with the import's progress.
+ * Nothing reaches the organisation's data here; applyStagedImport does that atomically.
+ */
+export async function readAndStage(db: Db, input: ReadInput): Promise<ReadResult> {
+  const { kind } = input;
+  const layout = STAGING[kind];
+  const reader = createRowReader(kind, input.headers, input.mapping, input.read);
+
+  const [componentRows, aliasRows, vehicleRows] = await Promise.all([
+    db
+      .select({
+        id: components.id,
+        slug: components.slug,
+        system: components.system,
+        name: components.name,
+      })
+      .from(components),
+    db
+      .select({ alias: componentAliases.alias, componentId: componentAliases.componentId })
+      .from(componentAliases)
+      .where(eq(componentAliases.organisationId, input.organisationId)),
+    needsVehicleKey(kind)
+      ? db
+          .select({
+            id: vehicles.id,
+            vin: vehicles.vin,
+            unitNumber: vehicles.unitNumber,
+            lastMi: vehicles.lastOdometerMi,
+            lastOn: vehicles.lastOdometerOn,
+          })
+          .from(vehicles)
+          .where(eq(vehicles.organisationId, input.organisationId))
+      : Promise.resolve([]),
+  ]);
+  const componentOf = buildComponentIndex(
+    componentRows,
+    new Map(aliasRows.map((a) => [a.alias, a.componentId])),
+  );
+  // Known vehicles by VIN and unit number; rows naming a new vehicle add it (if they describe it).
+  const knownVins = new Map<string, number | null>();
+  const knownUnits = new Map<string, number | null>();
+  const odometer = new OdometerChecks();
+  for (const v of vehicleRows) {
+    if (v.vin) knownVins.set(v.vin, v.id);
+    if (v.unitNumber) knownUnits.set(v.unitNumber, v.id);
+    odometer.seed(v.vin ?? `#${v.unitNumber}`, v.lastOn, v.lastMi);
+    if (v.vin && v.unitNumber) odometer.seed(`#${v.unitNumber}`, v.lastOn, v.lastMi);
+  }
+
+  let rowNumber = 1; // the header is row 1, as in a spreadsheet
+  let rowsTotal = 0;
+  let staged = 0;
+  let rejected = 0;
+  let warnings = 0;
+  let storedWarnings = 0;
+  let duplicatesInFile = 0;
+  let bytesRead = 0;
+  const seen = new FingerprintSet();
+  let pendingRows: SqlValue[][] = [];
+  let pendingIssues: Issue[] = [];
+  // Kinds whose rows name a vehicle that must already exist or be described by the row.
+  const hasVehicleColumn = needsVehicleKey(kind) && kind !== "vehicles";
+  const stageColumns = ["organisation_id", "import_id", "row_number", ...layout.columns];
+  if (hasVehicleColumn) stageColumns.push("vehicle_id");
+
+  const flush = async (): Promise<boolean> => {
+    const statements = insertStatements(layout.table, stageColumns, pendingRows);
+    const issueRows = pendingIssues.map((i) => [
+      input.organisationId,
+      input.importId,
+      i.rowNumber,
+      i.severity,
+      i.column,
+      i.reason,
+      i.raw,
+    ]);
+    statements.push(
+      ...insertStatements(
+        "import_rejects",
+        ["organisation_id", "import_id", "row_number", "severity", "column", "reason", "raw"],
+        issueRows,
+      ),
+      `update imports set bytes_read = ${bytesRead}, rows_total = ${rowsTotal}, rows_rejected = ${rejected},
+         rows_warning = ${warnings}, rows_duplicate = ${duplicatesInFile} where id = ${input.importId}`,
+    );
+    const tx = await db.$client.transaction("write");
+    try {
+      await tx.executeMultiple(statements.join(";\n"));
+      await tx.commit();
+    } finally {
+      tx.close();
+    }
+    staged += pendingRows.length;
+    pendingRows = [];
+    pendingIssues = [];
+    return input.shouldContinue();
+  };
+
+  const rawOf = (record: string[]) =>
+    record.join(input.delimiter === "\t" ? "\t" : input.delimiter).slice(0, 500);
+  const addIssues = (
+    record: string[],
+    severity: Issue["severity"],
+    issues: readonly RowIssue[],
+  ) => {
+    for (const issue of issues) {
+      pendingIssues.push({
+        rowNumber,
+        severity,
+        column: issue.column,
+        reason: issue.message,
+        raw: rawOf(record),
+      });
+    }
+  };
+
+  const source = createReadStream(input.path);
+  source.on("data", (chunk) => {
+    bytesRead += chunk.length;
+  });
+  const parser = source.pipe(strictUtf8()).pipe(
+    parse({
+      delimiter: input.delimiter,
+      bom: true,
+      relax_column_count: true,
+      // A stray quote inside an unquoted field is kept as text (common in exports).
+      relax_quotes: true,
+      skip_empty_lines: false,
+      max_record_size: MAX_RECORD_CHARS,
+    }),
+  );
+  const onError = (e: unknown) => parser.destroy(e instanceof Error ? e : new Error(String(e)));
+  source.on("error", onError);
+
+  let isHeader = true;
+  try {
+    for await (const record of parser as AsyncIterable<string[]>) {
+      if (isHeader) {
+        isHeader = false;
+        const header = record.map((h) => h.trim());
+        if (header.join("\u0001") !== input.headers.map((h) => h.trim()).join("\u0001")) {
+          throw fileError(
+            "The file's header row is not the one that was mapped. Upload the file again.",
+          );
+        }
+        continue;
+      }
+      rowNumber++;
+      if (record.length === 1 && record[0]?.trim() === "") continue; // a blank line
+      const result = reader(record, rowNumber);
+      if (!result.ok) {
+        if (result.issues.length === 1 && result.issues[0]?.message === "The row is empty.")
+          continue;
+        rowsTotal++;
+        rejected++;
+        addIssues(record, "rejected", result.issues);
+      } else {
+        rowsTotal++;
+        const row = result.row as TypedRow<ImportKind>;
+        const rowWarnings: RowIssue[] = [...result.warnings];
+        let isOk = true;
+        let vehicleId: number | null = null;
+        if (hasVehicleColumn) {
+          const r = row as TypedRow<"repairs">;
+          const isKnown =
+            (r.vin !== null && knownVins.has(r.vin)) ||
+            (r.unitNumber !== null && knownUnits.has(r.unitNumber));
+          vehicleId =
+            (r.vin !== null ? knownVins.get(r.vin) : undefined) ??
+            (r.unitNumber !== null ? knownUnits.get(r.unitNumber) : undefined) ??
+            null;
+          if (!isKnown) {
+            if (r.make && r.model && r.modelYear) {
+              // Added by this import: its id is known only once the import is applied.
+              if (r.vin) knownVins.set(r.vin, null);
+              if (r.unitNumber) knownUnits.set(r.unitNumber, null);
+            } else {
+              isOk = false;
+              rejected++;
+              addIssues(record, "rejected", [
+                {
+                  column: r.vin ? "vin" : "unit_number",
+                  message: `unknown vehicle ${r.vin ?? r.unitNumber}, and the row has no make, model and model year to add it`,
+                },
+              ]);
+            }
+          }
+          const on = isOk ? readingDate(kind, row) : null;
+          if (on && r.odometerMi !== null) {
+            const problem = odometer.check(r.vin ?? `#${r.unitNumber}`, on, r.odometerMi);
+            if (problem) rowWarnings.push({ column: "odometer", message: problem });
+          }
+        }
+        if (isOk) {
+          const values = layout.toValues(row as never, componentOf);
+          if (kind === "repairs") {
+            let key = "";
+            for (const v of values) key += `${v ?? ""}\u0001`;
+            if (!seen.add(fingerprint52(key))) {
+              isOk = false;
+              duplicatesInFile++;
+            }
+          }
+          if (isOk) {
+            const staged = [input.organisationId, input.importId, rowNumber, ...values];
+            if (hasVehicleColumn) staged.push(vehicleId);
+            pendingRows.push(staged);
+          }
+        }
+        if (isOk) {
+          if (rowWarnings.length) {
+            warnings++;
+            if (storedWarnings < MAX_STORED_WARNINGS) {
+              storedWarnings++;
+              addIssues(record, "warning", rowWarnings);
+            }
+          }
+        }
+      }
+      if (pendingRows.length >= FLUSH_ROWS || pendingIssues.length >= FLUSH_ROWS) {
+        if (!(await flush())) {
+          parser.destroy();
+          return { rowsTotal, staged, rejected, warnings, duplicatesInFile, isCancelled: true };
+        }
+      }
+    }
+  } catch (e) {
+    throw describeParseError(e, rowNumber);
+  }
+  if (isHeader) throw fileError("The file is empty: it has no header row.");
+  const shouldGoOn = await flush();
+  if (rowsTotal === 0) throw fileError("The file has a header row but no data rows.");
+  return { rowsTotal, staged, rejected, warnings, duplicatesInFile, isCancelled: !shouldGoOn };
+}

@@ -1,0 +1,138 @@
+import { eq } from "drizzle-orm";
+import type { Db } from "@/db";
+import { imports } from "@/db/schema";
+import type { ImportOptions } from "@/db/queries/imports";
+import { autoMapHeaders, type ColumnMapping } from "@/lib/import";
+import { PermanentJobError } from "../errors";
+import { applyStagedImport, clearStagedRows } from "./apply";
+import { readAndStage } from "./read";
+
+export type RunImportHooks = {
+  /** False once the job's lease was lost: stop writing at the next chunk. */
+  hasLease?: () => boolean;
+  log?: (msg: string) => void;
+};
+
+/** Header names in the stored mapping → column positions in this file. */
+export function mappingToIndexes(
+  headers: string[],
+  byName: ImportOptions["mapping"],
+): ColumnMapping {
+  const out: ColumnMapping = {};
+  for (const [key, name] of Object.entries(byName)) {
+    if (name === null) {
+      out[key] = null;
+      continue;
+    }
+    const at = headers.indexOf(name);
+    if (at < 0) throw new PermanentJobError(`The mapped column “${name}” is not in the file.`);
+    out[key] = at;
+  }
+  return out;
+}
+
+const now = () => new Date().toISOString();
+
+/**
+ * Runs one import from its stored file: clears what an interrupted earlier attempt left,
+ * reads and stages every row with progress, then applies the staged rows atomically (which
+ * also marks the import done and queues the statistics recompute). Safe to run again after a
+ * crash at any point: nothing is applied twice.
+ */
+export async function runImport(
+  db: Db,
+  importId: number,
+  hooks: RunImportHooks = {},
+): Promise<void> {
+  const [imp] = await db.select().from(imports).where(eq(imports.id, importId));
+  if (!imp) throw new PermanentJobError(`Import ${importId} does not exist.`);
+  if (["done", "undone", "cancelled", "failed"].includes(imp.status)) return;
+  const options = imp.options as ImportOptions | null;
+  if (!options) throw new PermanentJobError("The import has no column mapping.");
+
+  if (imp.status === "applying") {
+    // The apply batch is atomic: if the import is still "applying", it did not commit. Start over.
+    hooks.log?.(`import ${importId}: an earlier attempt stopped while applying; reading again`);
+  }
+  await clearStagedRows(db, imp.kind, importId);
+  await db.$client.execute({
+    sql: "delete from import_rejects where import_id = ?",
+    args: [importId],
+  });
+  await db
+    .update(imports)
+    .set({
+      status: "reading",
+      startedAt: now(),
+      bytesRead: 0,
+      rowsTotal: 0,
+      rowsRejected: 0,
+      rowsWarning: 0,
+      rowsDuplicate: 0,
+      error: null,
+    })
+    .where(eq(imports.id, importId));
+
+  // Columns the stored mapping leaves out are filled from the automatic match of this kind.
+  const mapping = {
+    ...autoMapHeaders(imp.kind, options.headers).mapping,
+    ...mappingToIndexes(options.headers, options.mapping),
+  };
+
+  const readStarted = performance.now();
+  const result = await readAndStage(db, {
+    kind: imp.kind,
+    organisationId: imp.organisationId,
+    importId,
+    path: imp.storedPath,
+    delimiter: options.delimiter,
+    headers: options.headers,
+    mapping,
+    read: options.read,
+    shouldContinue: async () => {
+      if (hooks.hasLease && !hooks.hasLease())
+        throw new Error("Lost the job's lease to another worker.");
+      const [row] = await db
+        .select({ cancel: imports.cancelRequestedAt })
+        .from(imports)
+        .where(eq(imports.id, importId));
+      return !row?.cancel;
+    },
+  });
+
+  if (result.isCancelled) {
+    await clearStagedRows(db, imp.kind, importId);
+    await db
+      .update(imports)
+      .set({ status: "cancelled", finishedAt: now() })
+      .where(eq(imports.id, importId));
+    hooks.log?.(`import ${importId} cancelled after ${result.rowsTotal} rows`);
+    return;
+  }
+  await db.update(imports).set({ status: "applying" }).where(eq(imports.id, importId));
+  const applyStarted = performance.now();
+  await applyStagedImport(db, {
+    kind: imp.kind,
+    organisationId: imp.organisationId,
+    importId,
+    stagedRows: result.staged,
+  });
+  const secs = (a: number, b: number) => ((b - a) / 1000).toFixed(1);
+  hooks.log?.(
+    `import ${importId}: read and staged ${result.rowsTotal} rows in ${secs(readStarted, applyStarted)} s, applied in ${secs(applyStarted, performance.now())} s`,
+  );
+}
+
+/** Marks an import failed for good, with a message for the user; its file is kept. */
+export async function failImport(db: Db, importId: number, reason: string): Promise<void> {
+  const [imp] = await db
+    .select({ kind: imports.kind, status: imports.status })
+    .from(imports)
+    .where(eq(imports.id, importId));
+  if (!imp || imp.status === "done" || imp.status === "undone") return;
+  await clearStagedRows(db, imp.kind, importId);
+  await db
+    .update(imports)
+    .set({ status: "failed", error: reason.slice(0, 1000), finishedAt: now() })
+    .where(eq(imports.id, importId));
+}

@@ -1,0 +1,26 @@
+import { z } from "zod";
+import { IMPORT_KINDS } from "@/db/schema/operations";
+
+/** Query of an upload: what the file holds and its name. */
+export const UploadQuery = z.object({
+  kind: z.enum(IMPORT_KINDS, {
+    message: `Choose what the file holds: ${IMPORT_KINDS.join(", ")}.`,
+  }),
+  name: z.string().trim().min(1, "The file needs a name.").max(200),
+});
+
+export const ReadOptionsInput = z.object({
+  dateFormat: z.enum(["iso", "mdy", "dmy"]),
+  decimalSeparator: z.enum([".", ","]),
+  distanceUnit: z.enum(["mi", "km"]),
+  volumeUnit: z.enum(["l", "us-gal", "imp-gal"]),
+});
+
+/** The mapping screen's choice: canonical column → header name (or null for "not in file"). */
+export const MappingInput = z.object({
+  mapping: z.record(z.string().max(60), z.string().max(300).nullable()),
+  read: ReadOptionsInput,
+});
+export type MappingInput = z.infer<typeof MappingInput>;
+
+export const ImportIdParams = z.object({ id: z.coerce.number().int().positive() });
