@@ -30,7 +30,10 @@ import { validateMapping } from "@/lib/import";
 import { receiveUpload } from "@/jobs/import/upload";
 import { startWorker } from "@/jobs/worker";
 import { loadReferenceData } from "@/db/seed/reference";
-import { loadDemo } from "@/db/seed/demo";
+import { DEMO_ORG_SLUGS, loadDemo } from "@/db/seed/demo";
+import { listRankedCells, type RankedCell } from "@/db/queries/cells";
+import { getRefuelAnalysis } from "@/db/queries/refuel";
+import { recomputeOrganisation } from "@/jobs/recompute/recompute";
 import { MIN_PASSWORD_LENGTH } from "@/lib/auth/password";
 
 type Output = { json?: boolean };
@@ -44,9 +47,9 @@ function action<A extends unknown[]>(fn: (...args: A) => Promise<{ data: unknown
     const opts = cmd.optsWithGlobals<Output>();
     try {
       const { data, text } = await fn(...args);
-      process.stdout.write(
-        opts.json ? `${JSON.stringify({ ok: true, ...(data as object) })}\n` : `${text}\n`,
-      );
+      // A list is printed as a JSON array; anything else as { ok: true, …fields }.
+      const doc = Array.isArray(data) ? data : { ok: true, ...(data as object) };
+      process.stdout.write(opts.json ? `${JSON.stringify(doc)}\n` : `${text}\n`);
     } catch (e) {
       const message =
         e instanceof z.ZodError ? z.prettifyError(e) : e instanceof Error ? e.message : String(e);
@@ -263,6 +266,103 @@ export function buildProgram(): Command {
       }),
     );
 
+  /** The organisation of --org, as its operator (admin rights) for the read commands. */
+  const operatorScope = async (slug: string) => {
+    const db = await openMigrated();
+    const org = await findOrganisationBySlug(db, slug);
+    return { db, org, scope: { organisationId: org.id, userId: null, role: "admin" as const } };
+  };
+  const positiveInt = (v: string) => z.coerce.number().int().positive().parse(v);
+
+  program
+    .command("recompute")
+    .description("recompute the cohort × band × fault statistics and signals")
+    .requiredOption("--org <slug>", "organisation slug")
+    .action(
+      action(async (opts: { org: string }) => {
+        const { db, org } = await operatorScope(opts.org);
+        const result = await recomputeOrganisation(db, org.id, log);
+        return {
+          data: result,
+          text: `${org.slug}: ${result.cells} cells, ${result.signals} signals (${result.readingsIgnored} of ${result.readings} odometer readings ignored) in ${result.seconds.toFixed(1)} s`,
+        };
+      }),
+    );
+
+  const printCells = (cells: RankedCell[]) =>
+    cells
+      .map(
+        (c) =>
+          `${c.signal ? "SIGNAL " : "       "}${`${c.make} ${c.model} ${c.generation}`.padEnd(26)} ${`${Math.round(c.bandFrom / 1000)}k–${Math.round(c.bandTo / 1000)}k mi`.padEnd(14)} ${(c.dtc ?? c.component ?? "").padEnd(34)} ${String(c.events).padStart(5)} ev  ${(c.rate ?? 0).toFixed(2).padStart(6)}/10k mi  ratio ${c.ratio === null ? (c.events > 0 ? "∞" : "—") : c.ratio.toFixed(2)} (${(c.ratioLower ?? 0).toFixed(2)}–${c.ratioUpper === null ? "∞" : c.ratioUpper.toFixed(2)})  q ${(c.qValue ?? 1).toPrecision(2)}`,
+      )
+      .join("\n") || "No cells: run recompute first, or nothing matches.";
+
+  program
+    .command("rank")
+    .description("cells ranked by the lower bound of the rate ratio")
+    .requiredOption("--org <slug>", "organisation slug")
+    .option("--fault <dtc|component>", "only this DTC or component slug")
+    .option("--limit <n>", "how many", positiveInt, 20)
+    .action(
+      action(async (opts: { org: string; fault?: string; limit: number }) => {
+        const { db, scope } = await operatorScope(opts.org);
+        const { cells } = await listRankedCells(db, scope, {
+          fault: opts.fault,
+          limit: opts.limit,
+        });
+        return { data: cells, text: printCells(cells) };
+      }),
+    );
+
+  program
+    .command("signals")
+    .description("cells that stand out after false-discovery control")
+    .requiredOption("--org <slug>", "organisation slug")
+    .action(
+      action(async (opts: { org: string }) => {
+        const { db, scope } = await operatorScope(opts.org);
+        const { cells } = await listRankedCells(db, scope, { isSignalOnly: true, limit: 10_000 });
+        return { data: cells, text: printCells(cells) };
+      }),
+    );
+
+  program
+    .command("refuel")
+    .description("post-refuel stall test per cohort and per vehicle")
+    .requiredOption("--org <slug>", "organisation slug")
+    .option(
+      "--window <miles>",
+      "miles after a fill-up",
+      (v) => z.coerce.number().positive().parse(v),
+      20,
+    )
+    .action(
+      action(async (opts: { org: string; window: number }) => {
+        const { db, scope } = await operatorScope(opts.org);
+        const result = await getRefuelAnalysis(db, scope, opts.window);
+        const line = (
+          name: string,
+          r: {
+            observed: number;
+            expected: number;
+            ratio: number;
+            lower: number;
+            upper: number;
+            pValue: number;
+            noFuelData: number;
+          },
+        ) =>
+          `${name.padEnd(30)} observed ${String(r.observed).padStart(4)}  expected ${r.expected.toFixed(1).padStart(6)}  ratio ${Number.isFinite(r.ratio) ? r.ratio.toFixed(2) : "—"} (${r.lower.toFixed(2)}–${Number.isFinite(r.upper) ? r.upper.toFixed(2) : "∞"})  p ${r.pValue.toPrecision(2)}  no fuel data ${r.noFuelData}`;
+        return {
+          data: result,
+          text: [
+            line("whole fleet", result.fleet),
+            ...result.cohorts.map((c) => line(`${c.make} ${c.model} ${c.generation}`, c)),
+          ].join("\n"),
+        };
+      }),
+    );
+
   const demo = program.command("demo").description("invented demo scenario");
   demo
     .command("load")
@@ -271,11 +371,14 @@ export function buildProgram(): Command {
     .option("--seed <n>", "random seed", (v) => z.coerce.number().int().parse(v))
     .action(
       action(async (opts: { reset?: boolean; seed?: number }) => {
-        const summary = await loadDemo(await openMigrated(), {
-          reset: opts.reset,
-          seed: opts.seed,
-          log,
-        });
+        const db = await openMigrated();
+        const summary = await loadDemo(db, { reset: opts.reset, seed: opts.seed, log });
+        // The demo comes with its statistics computed, so every screen has something to show.
+        if (summary.status === "loaded") {
+          for (const slug of DEMO_ORG_SLUGS) {
+            await recomputeOrganisation(db, (await findOrganisationBySlug(db, slug)).id, log);
+          }
+        }
         const lines = summary.organisations.map(
           (o) =>
             `  ${o.slug}: ${o.vehicles} vehicles, ${o.repairOrders} repair orders, ${o.faultEvents} fault events, ${o.fuelTransactions} fill-ups`,

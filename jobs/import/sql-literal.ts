@@ -10,6 +10,8 @@
  */
 export type SqlValue = string | number | boolean | null | undefined;
 
+const IDENTIFIER = /^[a-z_][a-z0-9_]*$/;
+
 export function sqlLiteral(value: SqlValue): string {
   if (value === null || value === undefined) return "NULL";
   if (typeof value === "boolean") return value ? "1" : "0";
@@ -30,7 +32,7 @@ export function insertStatements(
   rows: readonly SqlValue[][],
   rowsPerStatement = 500,
 ): string[] {
-  if (!/^[a-z_]+$/.test(table) || columns.some((c) => !/^[a-z_]+$/.test(c))) {
+  if (!IDENTIFIER.test(table) || columns.some((c) => !IDENTIFIER.test(c))) {
     throw new Error("insertStatements: table and column names must be plain identifiers");
   }
   const head = `insert into ${table} (${columns.join(", ")}) values `;

@@ -232,6 +232,9 @@ describe("no query in the tenant data layer forgets the organisation", () => {
         expect(ok, `${file}: .where(${w}`).toBe(true);
       }
       if (/\bconst where = /.test(text)) expect(text).toMatch(/const where = orgWhere\(/);
+      // Raw SQL read with db.all must pin the organisation from the scope itself.
+      if (/\bdb\.all</.test(text))
+        expect(text).toMatch(/organisation_id = \$\{scope\.organisationId\}/);
       // Every exported function takes the scope (or is the audit writer that receives it).
       for (const m of text.matchAll(/export async function (\w+)\(([^)]*)/g)) {
         expect(m[2], `${file}: ${m[1]} takes an OrgScope`).toMatch(/scope: OrgScope/);

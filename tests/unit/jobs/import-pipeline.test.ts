@@ -410,3 +410,34 @@ describe("bad files: a clear message and nothing partial", () => {
     );
   });
 });
+
+describe("after an import", () => {
+  test("the queued recompute runs in a worker, merges repeats, and stores cells", async () => {
+    const { startWorker } = await import("@/jobs/worker");
+    const queued = await rows<{ id: number }>(
+      db,
+      "select id from jobs where kind = 'recompute' and status = 'queued' and organisation_id = ?",
+      [scope.organisationId],
+    );
+    expect(queued.length).toBeGreaterThan(1);
+    await startWorker({ db, isOneShot: true, log: () => {} });
+    const left = await rows(
+      db,
+      "select id from jobs where kind = 'recompute' and status = 'queued'",
+    );
+    expect(left).toHaveLength(0);
+    const runs = await rows<{ cells: number }>(
+      db,
+      "select cells from analysis_runs where organisation_id = ?",
+      [scope.organisationId],
+    );
+    expect(runs).toHaveLength(1);
+    expect(Number(runs[0]?.cells)).toBeGreaterThan(0);
+    const cells = await rows<{ n: number }>(
+      db,
+      "select count(*) as n from cell_stats where organisation_id = ?",
+      [scope.organisationId],
+    );
+    expect(Number(cells[0]?.n)).toBe(Number(runs[0]?.cells));
+  });
+});

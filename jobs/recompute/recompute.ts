@@ -1,0 +1,196 @@
+import { eq } from "drizzle-orm";
+import type { Db } from "@/db";
+import { organisations } from "@/db/schema";
+import { unitToMiles } from "@/lib/units";
+import { insertStatements, type SqlValue } from "../import/sql-literal";
+import { computeCells, type CellStat } from "./cells";
+import { countEvents } from "./events";
+import { computeExposure } from "./exposure";
+
+export type RecomputeResult = {
+  runId: number;
+  cells: number;
+  signals: number;
+  readings: number;
+  readingsIgnored: number;
+  linesWithoutOdometer: number;
+  seconds: number;
+};
+
+const CELL_COLUMNS = [
+  "organisation_id",
+  "run_id",
+  "make",
+  "model",
+  "generation_id",
+  "cohort_label",
+  "band_index",
+  "band_from_mi",
+  "band_to_mi",
+  "fault_key",
+  "dtc",
+  "component_id",
+  "events",
+  "exposure_mi",
+  "vehicles_at_risk",
+  "vehicles_affected",
+  "rate_per_10k",
+  "rate_lower",
+  "rate_upper",
+  "share_affected",
+  "share_lower",
+  "share_upper",
+  "rate_ratio",
+  "ratio_lower",
+  "ratio_upper",
+  "p_value",
+  "q_value",
+  "shrunk_rate_per_10k",
+  "is_signal",
+  "has_too_little_data",
+] as const;
+
+export function cellKey(c: Pick<CellStat, "cohort" | "band" | "faultKey">): string {
+  return `${c.cohort.key}|${c.band}|${c.faultKey}`;
+}
+
+function cellValues(org: number, runId: number, c: CellStat): SqlValue[] {
+  return [
+    org,
+    runId,
+    c.cohort.make,
+    c.cohort.model,
+    c.cohort.generationId,
+    c.cohort.label,
+    c.band,
+    c.bandFromMi,
+    c.bandToMi,
+    c.faultKey,
+    c.dtc,
+    c.componentId,
+    c.events,
+    c.exposureMi,
+    c.vehiclesAtRisk,
+    c.vehiclesAffected,
+    c.ratePer10k,
+    c.rateLower,
+    c.rateUpper,
+    c.shareAffected,
+    c.shareLower,
+    c.shareUpper,
+    c.rateRatio,
+    c.ratioLower,
+    c.ratioUpper,
+    c.pValue,
+    c.qValue,
+    c.shrunkRatePer10k,
+    c.isSignal,
+    c.hasTooLittleData,
+  ];
+}
+
+/**
+ * Recomputes an organisation's cells and signals from its data: exposure from every odometer
+ * reading, events by GROUP BY, statistics in lib/stats, then one write transaction that stores
+ * the new run's cells, drops older runs, and records signals (keeping when each first appeared).
+ */
+export async function recomputeOrganisation(
+  db: Db,
+  organisationId: number,
+  log: (msg: string) => void = () => {},
+): Promise<RecomputeResult> {
+  const started = performance.now();
+  const [org] = await db.select().from(organisations).where(eq(organisations.id, organisationId));
+  if (!org) throw new Error(`recompute: organisation ${organisationId} does not exist`);
+  const bandWidthMi = unitToMiles(org.bandWidth, org.distanceUnit);
+  const minExposureMi = unitToMiles(org.minExposure, org.distanceUnit);
+
+  const exposure = await computeExposure(db, organisationId, bandWidthMi);
+  const { counts, linesWithoutOdometer } = await countEvents(db, organisationId, bandWidthMi);
+  const cells = computeCells({
+    cohorts: exposure.cohorts,
+    exposure: exposure.byCohortBand,
+    counts,
+    bandWidthMi,
+    confidence: org.confidenceLevel,
+    minExposureMi,
+  });
+  const signals = cells.filter((c) => c.isSignal);
+
+  const tx = await db.$client.transaction("write");
+  let runId: number;
+  try {
+    const run = await tx.execute({
+      sql: `insert into analysis_runs (organisation_id, status, band_width_mi, confidence_level, cells, signals, readings_ignored, finished_at)
+            values (?, 'done', ?, ?, ?, ?, ?, strftime('%Y-%m-%dT%H:%M:%fZ','now')) returning id`,
+      args: [
+        organisationId,
+        bandWidthMi,
+        org.confidenceLevel,
+        cells.length,
+        signals.length,
+        exposure.readingsIgnored,
+      ],
+    });
+    runId = Number(run.rows[0]?.id);
+    const rows = cells.map((c) => cellValues(organisationId, runId, c));
+    const statements = insertStatements("cell_stats", CELL_COLUMNS, rows, 500);
+    // Older runs (and their cells, by cascade) are replaced by this one.
+    statements.push(
+      `delete from analysis_runs where organisation_id = ${organisationId} and id <> ${runId}`,
+    );
+    if (statements.length) await tx.executeMultiple(statements.join(";\n"));
+    const now = new Date().toISOString();
+    for (let i = 0; i < signals.length; i += 200) {
+      const chunk = signals.slice(i, i + 200);
+      const values = chunk
+        .map(() => "(?, ?, ?, ?, ?, ?, ?, 'new', ?, ?, ?, ?, ?, ?, ?, ?, ?)")
+        .join(", ");
+      await tx.execute({
+        // signals.created_at is the moment a signal first appeared (firstSeenAt in the schema).
+        sql: `insert into signals (organisation_id, cell_key, make, model, cohort_label, band_index, fault_key, state,
+                created_at, last_seen_at, last_run_id, events, exposure_mi, rate_ratio, ratio_lower, ratio_upper, q_value)
+              values ${values}
+              on conflict (organisation_id, cell_key) do update set
+                last_seen_at = excluded.last_seen_at, last_run_id = excluded.last_run_id, events = excluded.events,
+                exposure_mi = excluded.exposure_mi, rate_ratio = excluded.rate_ratio, ratio_lower = excluded.ratio_lower,
+                ratio_upper = excluded.ratio_upper, q_value = excluded.q_value`,
+        args: chunk.flatMap((c) => [
+          organisationId,
+          cellKey(c),
+          c.cohort.make,
+          c.cohort.model,
+          c.cohort.label,
+          c.band,
+          c.faultKey,
+          now,
+          now,
+          runId,
+          c.events,
+          c.exposureMi,
+          c.rateRatio,
+          c.ratioLower,
+          c.ratioUpper,
+          c.qValue,
+        ]),
+      });
+    }
+    await tx.commit();
+  } finally {
+    tx.close();
+  }
+  const seconds = (performance.now() - started) / 1000;
+  log(
+    `recompute for organisation ${organisationId}: ${cells.length} cells, ${signals.length} signals, ` +
+      `${exposure.readingsIgnored} of ${exposure.readings} odometer readings ignored, ${seconds.toFixed(1)} s`,
+  );
+  return {
+    runId,
+    cells: cells.length,
+    signals: signals.length,
+    readings: exposure.readings,
+    readingsIgnored: exposure.readingsIgnored,
+    linesWithoutOdometer,
+    seconds,
+  };
+}

@@ -1,0 +1,85 @@
+/**
+ * `npm run bench:stats -- --rows 1000000`: the full recompute against a bare GROUP BY.
+ *
+ * Uses the import benchmark's database (data/bench/import-product.db, built by
+ * `npm run bench:import -- --rows N` when missing or of another size), then in one run:
+ * 1. times the `sqlite3` command line's bare GROUP BY of cohort × mileage band × DTC over the
+ *    same file (the floor: counting only, no exposure, no statistics, no writes);
+ * 2. times Recurra's full recompute (exposure from every odometer reading, events by fault,
+ *    intervals, rate ratios, BH, shrinkage, writing cells and signals) in a child process, with
+ *    its peak RSS.
+ * Prints both times, their ratio and the peak RSS, and as the last line one JSON object.
+ */
+import { execFileSync } from "node:child_process";
+import { existsSync } from "node:fs";
+import { join } from "node:path";
+import { parseArgs } from "node:util";
+
+const { values } = parseArgs({ options: { rows: { type: "string", default: "1000000" } } });
+const rows = Number(values.rows);
+if (!Number.isInteger(rows) || rows < 1) throw new Error("--rows must be a positive integer");
+const dir = join(process.cwd(), "data", "bench");
+const dbPath = join(dir, "import-product.db");
+
+const countLines = () =>
+  existsSync(dbPath)
+    ? Number(
+        execFileSync("sqlite3", [dbPath, "select count(*) from repair_lines"]).toString().trim(),
+      )
+    : 0;
+if (countLines() !== rows) {
+  process.stderr.write(`building the ${rows}-row benchmark database with the import benchmark\n`);
+  execFileSync("npm", ["run", "-s", "bench:import", "--", "--rows", String(rows)], {
+    stdio: "inherit",
+  });
+}
+const width = 25_000;
+const floorSql = `select v.make, v.model, coalesce(g.label, v.model_year) as label,
+    cast(l.odometer_mi / ${width} as integer) as band, c.dtc, count(*), count(distinct l.vehicle_id)
+  from repair_line_codes c join repair_lines l on l.id = c.repair_line_id
+  join vehicles v on v.id = l.vehicle_id left join generations g on g.id = v.generation_id
+  where l.odometer_mi is not null group by 1, 2, 3, 4, 5;`;
+// Warm the page cache once so neither side pays for the first read from disk.
+execFileSync("sqlite3", [
+  dbPath,
+  "select count(*) from repair_lines; select count(*) from repair_line_codes;",
+]);
+const t0 = performance.now();
+const groups = execFileSync("sqlite3", [dbPath, floorSql], { maxBuffer: 256 * 1024 * 1024 })
+  .toString()
+  .split("\n")
+  .filter(Boolean).length;
+const floorSeconds = (performance.now() - t0) / 1000;
+
+const out = execFileSync(
+  process.execPath,
+  ["--import", "tsx", "--conditions=react-server", "tests/bench/stats-run.ts"],
+  {
+    env: { ...process.env, DATABASE_URL: `file:${dbPath}`, RECURRA_DATA_DIR: dir },
+    stdio: ["ignore", "pipe", "inherit"],
+  },
+).toString();
+const result = JSON.parse(out.trim().split("\n").at(-1) ?? "{}") as {
+  seconds: number;
+  cells: number;
+  signals: number;
+  peakRssMb: number;
+};
+const ratio = Math.round((result.seconds / floorSeconds) * 100) / 100;
+const peakRssMb = Math.round(result.peakRssMb);
+const recomputeSeconds = Math.round(result.seconds * 100) / 100;
+process.stdout.write(
+  [
+    `data: ${rows.toLocaleString("en-GB")} repair lines`,
+    `sqlite3 bare GROUP BY cohort × band × DTC (floor): ${floorSeconds.toFixed(2)} s, ${groups} groups`,
+    `Recurra full recompute: ${result.seconds.toFixed(2)} s, ${result.cells} cells, ${result.signals} signals, peak RSS ${peakRssMb} MB`,
+    `ratio (recompute / floor): ${ratio}  (target ≤ 2; peak RSS target ≤ 400 MB)`,
+    JSON.stringify({
+      rows,
+      recomputeSeconds,
+      floorSeconds: Math.round(floorSeconds * 100) / 100,
+      ratio,
+      peakRssMb,
+    }),
+  ].join("\n") + "\n",
+);
