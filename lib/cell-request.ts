@@ -12,6 +12,8 @@ export const CellQuery = z.object({
     .enum(["0", "1", "true", "false"])
     .optional()
     .transform((v) => v === "1" || v === "true"),
+  sort: z.enum(["ratioLower", "rate", "events", "shrunkRate", "qValue", "exposure"]).optional(),
+  direction: z.enum(["asc", "desc"]).optional(),
   limit: z.coerce.number().int().min(1).max(1000).default(50),
   offset: z.coerce.number().int().min(0).max(10_000_000).default(0),
 });
@@ -19,4 +21,35 @@ export type CellQuery = z.infer<typeof CellQuery>;
 
 export const RefuelQuery = z.object({
   window: z.coerce.number().positive().max(500).optional(),
+});
+
+export const HeatmapQuery = z.object({
+  view: z.enum(["cohorts", "faults"]).default("cohorts"),
+  fault: z.string().trim().max(80).optional(),
+  make: z.string().trim().max(60).optional(),
+  model: z.string().trim().max(60).optional(),
+  generation: z.string().trim().max(60).optional(),
+  bandFrom: z.coerce.number().min(0).max(10_000_000).optional(),
+  bandTo: z.coerce.number().min(0).max(10_000_000).optional(),
+});
+
+/** An empty form field ("from=") means the filter is not set. */
+const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+
+const IsoDate = z
+  .string()
+  .trim()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "A date is written YYYY-MM-DD.")
+  .refine((d) => !Number.isNaN(Date.parse(d)), "Not a calendar date.");
+
+export const CellKeyQuery = z.object({
+  make: z.string().trim().min(1).max(60),
+  model: z.string().trim().min(1).max(60),
+  generation: z.string().trim().min(1).max(60),
+  band: z.coerce.number().int().min(0).max(1000),
+  fault: z.string().trim().min(1).max(80),
+  /** Repair orders opened on or after / on or before (the drill-down's list, totals and CSV). */
+  from: z.preprocess(blankToUndefined, IsoDate.optional()),
+  to: z.preprocess(blankToUndefined, IsoDate.optional()),
+  vendor: z.preprocess(blankToUndefined, z.string().trim().min(1).max(120).optional()),
 });

@@ -39,8 +39,31 @@ export type CellFilter = {
   bandFromMi?: number;
   bandToMi?: number;
   isSignalOnly?: boolean;
+  sort?: CellSort;
+  /** Adds `firstSeen` (when the cell first became a signal) for the screens. */
+  withFirstSeen?: boolean;
+  direction?: "asc" | "desc";
   limit: number;
   offset?: number;
+};
+
+export const CELL_SORTS = [
+  "ratioLower",
+  "rate",
+  "events",
+  "shrunkRate",
+  "qValue",
+  "exposure",
+] as const;
+export type CellSort = (typeof CELL_SORTS)[number];
+
+const SORT_SQL: Record<CellSort, string> = {
+  ratioLower: "c.ratio_lower",
+  rate: "c.rate_per_10k",
+  events: "c.events",
+  shrunkRate: "c.shrunk_rate_per_10k",
+  qValue: "c.q_value",
+  exposure: "c.exposure_mi",
 };
 
 const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
@@ -57,8 +80,11 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
     sql`c.fault_key <> 'all'`,
   ];
   if (filter.fault) {
+    // A DTC, a component slug, or a system (the part of component slugs before the "/").
     const f = filter.fault.trim();
-    conditions.push(sql`(c.dtc = ${f.toUpperCase()} or k.slug = ${f.toLowerCase()})`);
+    conditions.push(
+      sql`(c.dtc = ${f.toUpperCase()} or k.slug = ${f.toLowerCase()} or k.slug like ${`${f.toLowerCase().replace(/[%_]/g, "")}/%`})`,
+    );
   }
   if (filter.make) conditions.push(sql`c.make = ${filter.make}`);
   if (filter.model) conditions.push(sql`c.model = ${filter.model}`);
@@ -67,20 +93,26 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
   if (filter.bandToMi !== undefined) conditions.push(sql`c.band_from_mi < ${filter.bandToMi}`);
   if (filter.isSignalOnly) conditions.push(sql`c.is_signal = 1`);
   const filterSql = sql.join(conditions, sql` and `);
+  // Default: the stable score (ratio lower bound), unknowns last; ties by shrunk rate, events.
+  const column = SORT_SQL[filter.sort ?? "ratioLower"];
+  const direction = filter.direction ?? (filter.sort === "qValue" ? "asc" : "desc");
+  const orderBy = `${column} is null, ${column} ${direction === "asc" ? "asc" : "desc"}, c.shrunk_rate_per_10k desc, c.events desc, c.id`;
   const rows = await db.all<Record<string, unknown>>(sql`
     select c.make, c.model, c.cohort_label, g.year_from, g.year_to, c.band_from_mi, c.band_to_mi, c.dtc,
            k.slug as component, c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected,
            c.rate_per_10k, c.rate_lower, c.rate_upper, c.rate_ratio, c.ratio_lower, c.ratio_upper,
-           c.p_value, c.q_value, c.shrunk_rate_per_10k, c.is_signal
+           c.p_value, c.q_value, c.shrunk_rate_per_10k, c.is_signal, s.created_at as first_seen
       from cell_stats c
       left join generations g on g.id = c.generation_id
       left join components k on k.id = c.component_id
+      left join signals s on s.organisation_id = c.organisation_id and s.make = c.make and s.model = c.model
+        and s.cohort_label = c.cohort_label and s.band_index = c.band_index and s.fault_key = c.fault_key
      where ${filterSql}
-     order by c.ratio_lower is null, c.ratio_lower desc, c.shrunk_rate_per_10k desc, c.events desc
+     order by ${sql.raw(orderBy)}
      limit ${filter.limit} offset ${filter.offset ?? 0}`);
   const [count] = await db.all<{ n: number }>(sql`
     select count(*) as n from cell_stats c left join components k on k.id = c.component_id where ${filterSql}`);
-  const cells: RankedCell[] = rows.map((r) => {
+  const cells: (RankedCell & { firstSeen?: string | null })[] = rows.map((r) => {
     const label = String(r.cohort_label);
     const year = /^\d{4}$/.test(label) ? Number(label) : null;
     return {
@@ -107,6 +139,9 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
       qValue: num(r.q_value),
       shrunkRate: num(r.shrunk_rate_per_10k),
       signal: Boolean(r.is_signal),
+      ...(filter.withFirstSeen
+        ? { firstSeen: r.first_seen === null ? null : String(r.first_seen) }
+        : {}),
     };
   });
   return { cells, total: Number(count?.n ?? 0) };

@@ -11,28 +11,14 @@
  * Prints both times, their ratio and the peak RSS, and as the last line one JSON object.
  */
 import { execFileSync } from "node:child_process";
-import { existsSync } from "node:fs";
-import { join } from "node:path";
 import { parseArgs } from "node:util";
+import { benchDbPath, ensureBenchDatabase, recomputeBenchDatabase } from "./bench-db";
 
 const { values } = parseArgs({ options: { rows: { type: "string", default: "1000000" } } });
 const rows = Number(values.rows);
 if (!Number.isInteger(rows) || rows < 1) throw new Error("--rows must be a positive integer");
-const dir = join(process.cwd(), "data", "bench");
-const dbPath = join(dir, "import-product.db");
-
-const countLines = () =>
-  existsSync(dbPath)
-    ? Number(
-        execFileSync("sqlite3", [dbPath, "select count(*) from repair_lines"]).toString().trim(),
-      )
-    : 0;
-if (countLines() !== rows) {
-  process.stderr.write(`building the ${rows}-row benchmark database with the import benchmark\n`);
-  execFileSync("npm", ["run", "-s", "bench:import", "--", "--rows", String(rows)], {
-    stdio: "inherit",
-  });
-}
+ensureBenchDatabase(rows);
+const dbPath = benchDbPath;
 const width = 25_000;
 const floorSql = `select v.make, v.model, coalesce(g.label, v.model_year) as label,
     cast(l.odometer_mi / ${width} as integer) as band, c.dtc, count(*), count(distinct l.vehicle_id)
@@ -51,20 +37,7 @@ const groups = execFileSync("sqlite3", [dbPath, floorSql], { maxBuffer: 256 * 10
   .filter(Boolean).length;
 const floorSeconds = (performance.now() - t0) / 1000;
 
-const out = execFileSync(
-  process.execPath,
-  ["--import", "tsx", "--conditions=react-server", "tests/bench/stats-run.ts"],
-  {
-    env: { ...process.env, DATABASE_URL: `file:${dbPath}`, RECURRA_DATA_DIR: dir },
-    stdio: ["ignore", "pipe", "inherit"],
-  },
-).toString();
-const result = JSON.parse(out.trim().split("\n").at(-1) ?? "{}") as {
-  seconds: number;
-  cells: number;
-  signals: number;
-  peakRssMb: number;
-};
+const result = recomputeBenchDatabase();
 const ratio = Math.round((result.seconds / floorSeconds) * 100) / 100;
 const peakRssMb = Math.round(result.peakRssMb);
 const recomputeSeconds = Math.round(result.seconds * 100) / 100;

@@ -1,36 +1,8 @@
-import { execFileSync, spawn } from "node:child_process";
+import { execFileSync } from "node:child_process";
 import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
-import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.once("error", reject);
-    srv.listen(0, "127.0.0.1", () => {
-      const address = srv.address();
-      const port = typeof address === "object" && address ? address.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
-
-async function waitForHealth(url: string, timeoutMs: number) {
-  const until = Date.now() + timeoutMs;
-  let last = "";
-  while (Date.now() < until) {
-    try {
-      const res = await fetch(`${url}/api/health`);
-      if (res.ok) return;
-      last = `HTTP ${res.status}`;
-    } catch (e) {
-      last = String(e);
-    }
-    await new Promise((r) => setTimeout(r, 300));
-  }
-  throw new Error(`next start did not become healthy at ${url}: ${last}`);
-}
+import { startNext } from "../support/server";
 
 /**
  * A fresh database with the demo scenario, and `next start` on a free loopback port. What the
@@ -51,26 +23,7 @@ export default async function globalSetup() {
     env,
     stdio: ["ignore", "inherit", "inherit"],
   });
-  const port = await freePort();
-  const baseURL = `http://127.0.0.1:${port}`;
-  const server = spawn(
-    "npx",
-    ["next", "start", "--hostname", "127.0.0.1", "--port", String(port)],
-    {
-      env: { ...env, NEXTAUTH_URL: baseURL },
-      stdio: ["ignore", "pipe", "pipe"],
-      detached: true,
-    },
-  );
-  const logs: string[] = [];
-  server.stdout?.on("data", (d: Buffer) => logs.push(d.toString()));
-  server.stderr?.on("data", (d: Buffer) => logs.push(d.toString()));
-  try {
-    await waitForHealth(baseURL, 60_000);
-  } catch (e) {
-    process.stderr.write(logs.join(""));
-    throw e;
-  }
+  const { baseURL, logs, stop } = await startNext(env);
   Object.assign(process.env, {
     E2E_BASE_URL: baseURL,
     DATABASE_URL: env.DATABASE_URL,
@@ -78,6 +31,6 @@ export default async function globalSetup() {
   });
   return async () => {
     writeFileSync(join("test-results", "e2e-server.log"), logs.join(""));
-    if (server.pid) process.kill(-server.pid, "SIGTERM");
+    stop();
   };
 }

@@ -1,5 +1,8 @@
 import Link from "next/link";
 import { OverviewFigures } from "@/components/home/overview-figures";
+import { PatternPanels } from "@/components/home/pattern-panels";
+import { getDb } from "@/db";
+import { getLatestRun, listRankedCells } from "@/db/queries/cells";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { requirePage } from "@/lib/auth/guard";
@@ -8,6 +11,14 @@ import { can } from "@/lib/auth/roles";
 export default async function HomePage() {
   const auth = await requirePage("dashboard:read");
   const org = auth.organisation;
+  const db = await getDb();
+  const [run, signalList, topList] = await Promise.all([
+    getLatestRun(db, auth),
+    listRankedCells(db, auth, { isSignalOnly: true, withFirstSeen: true, limit: 200 }),
+    listRankedCells(db, auth, { limit: 5 }),
+  ]);
+  const signals = signalList.cells;
+  const top = topList.cells;
   return (
     <>
       <PageHeader
@@ -20,28 +31,16 @@ export default async function HomePage() {
       />
       <OverviewFigures organisationId={auth.organisationId} />
       <div className="mt-6 grid gap-4 lg:grid-cols-3">
-        <Panel title="New signals">
-          <p className="text-sm text-ink-soft">
-            Signals appear here once the statistics engine has ranked this organisation&apos;s
-            cohort × mileage-band cells. It has not run yet, so there is nothing to show — not
-            &ldquo;no problems&rdquo;.
-          </p>
-        </Panel>
-        <Panel title="Top recurring failures">
-          <p className="text-sm text-ink-soft">
-            The ranked list (by the lower bound of the rate ratio, with intervals) arrives with the
-            pattern explorer.
-          </p>
-          {can(auth.role, "patterns:read") ? (
-            <Link href="/patterns" className="mt-2 inline-block text-sm">
-              Patterns →
-            </Link>
-          ) : null}
-        </Panel>
+        <PatternPanels
+          signals={signals}
+          top={top}
+          unit={org.distanceUnit}
+          computedAt={run?.finishedAt ?? null}
+        />
         {can(auth.role, "lookup:use") ? (
           <Panel title="At the bay">
             <p className="text-sm text-ink-soft">
-              Find a vehicle by VIN or unit number and see its repair history.
+              Find a vehicle by VIN or unit number and see its timeline and the patterns it matches.
             </p>
             <Link href="/vehicles" className="mt-2 inline-block text-sm">
               Vehicles →

@@ -1,15 +1,57 @@
+import { z } from "zod";
 import { getDb } from "@/db";
 import { getLatestRun, listRankedCells } from "@/db/queries/cells";
 import { apiRoute, jsonError } from "@/lib/auth/guard";
 import { CellQuery } from "@/lib/cell-request";
+import { toCsv } from "@/lib/import";
 
 export const dynamic = "force-dynamic";
 
-/** Cells of the latest analysis run, ranked by the lower bound of the rate ratio. */
+const Format = z.object({ format: z.enum(["json", "csv"]).default("json") });
+
+const CSV_COLUMNS = [
+  "make",
+  "model",
+  "generation",
+  "yearFrom",
+  "yearTo",
+  "bandFrom",
+  "bandTo",
+  "dtc",
+  "component",
+  "events",
+  "exposureMiles",
+  "vehicles",
+  "vehiclesAffected",
+  "rate",
+  "rateLower",
+  "rateUpper",
+  "ratio",
+  "ratioLower",
+  "ratioUpper",
+  "pValue",
+  "qValue",
+  "shrunkRate",
+  "signal",
+] as const;
+
+/**
+ * Cells of the latest analysis run, ranked by the lower bound of the rate ratio (or another
+ * sort), filtered and paginated on the server. `format=csv` exports the filtered list (up to
+ * 100,000 rows) with every cell made safe for spreadsheets.
+ */
 export const GET = apiRoute("patterns:read", async (req, auth) => {
-  const q = CellQuery.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-  if (!q.success) return jsonError(400, "Invalid query parameters.", q.error.issues);
+  const params = Object.fromEntries(new URL(req.url).searchParams);
+  const q = CellQuery.safeParse(params);
+  const f = Format.safeParse(params);
+  if (!q.success || !f.success) {
+    return jsonError(400, "Invalid query parameters.", [
+      ...(q.error?.issues ?? []),
+      ...(f.error?.issues ?? []),
+    ]);
+  }
   const db = await getDb();
+  const isCsv = f.data.format === "csv";
   const { cells, total } = await listRankedCells(db, auth, {
     fault: q.data.fault,
     make: q.data.make,
@@ -18,8 +60,24 @@ export const GET = apiRoute("patterns:read", async (req, auth) => {
     bandFromMi: q.data.bandFrom,
     bandToMi: q.data.bandTo,
     isSignalOnly: q.data.signals,
-    limit: q.data.limit,
-    offset: q.data.offset,
+    sort: q.data.sort,
+    direction: q.data.direction,
+    withFirstSeen: !isCsv,
+    limit: isCsv ? 100_000 : q.data.limit,
+    offset: isCsv ? 0 : q.data.offset,
   });
+  if (isCsv) {
+    const body = toCsv(
+      CSV_COLUMNS,
+      cells.map((c) => CSV_COLUMNS.map((k) => c[k])),
+      { withBom: true },
+    );
+    return new Response(body, {
+      headers: {
+        "content-type": "text/csv; charset=utf-8",
+        "content-disposition": 'attachment; filename="recurra-recurring-failures.csv"',
+      },
+    });
+  }
   return Response.json({ run: await getLatestRun(db, auth), total, cells });
 });

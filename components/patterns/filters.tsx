@@ -1,0 +1,184 @@
+"use client";
+
+import { buttonClass } from "@/components/ui/button";
+import type { ExplorerParams } from "./query-strings";
+
+export type PatternOptions = {
+  cohorts: { make: string; model: string; generation: string }[];
+  faults: { value: string; label: string; events: number }[];
+  bands: { from: number; to: number; label: string }[];
+};
+
+const selectClass = "w-full rounded-md border border-line-strong bg-white px-2 py-1.5 text-sm";
+
+export function Filters({
+  options,
+  params,
+  setParams,
+}: {
+  options: PatternOptions;
+  params: ExplorerParams;
+  setParams: (patch: Partial<ExplorerParams>) => void;
+}) {
+  const makes = [...new Set(options.cohorts.map((c) => c.make))];
+  const models = [
+    ...new Set(
+      options.cohorts.filter((c) => !params.make || c.make === params.make).map((c) => c.model),
+    ),
+  ];
+  const generations = [
+    ...new Set(
+      options.cohorts
+        .filter(
+          (c) =>
+            (!params.make || c.make === params.make) && (!params.model || c.model === params.model),
+        )
+        .map((c) => c.generation),
+    ),
+  ];
+  const systems = [
+    ...new Set(
+      options.faults
+        .filter((f) => f.value.includes("/"))
+        .map((f) => f.value.split("/")[0] as string),
+    ),
+  ];
+  return (
+    <section
+      aria-label="Filters"
+      className="grid gap-3 rounded-lg border border-line bg-panel p-4 sm:grid-cols-3 lg:grid-cols-7"
+    >
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Make</span>
+        <select
+          className={selectClass}
+          value={params.make ?? ""}
+          onChange={(e) =>
+            setParams({
+              make: e.target.value,
+              model: undefined,
+              generation: undefined,
+              view: "cohorts",
+            })
+          }
+        >
+          <option value="">all makes</option>
+          {makes.map((m) => (
+            <option key={m}>{m}</option>
+          ))}
+        </select>
+      </label>
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Model</span>
+        <select
+          className={selectClass}
+          value={params.model ?? ""}
+          onChange={(e) => setParams({ model: e.target.value, generation: undefined })}
+        >
+          <option value="">all models</option>
+          {models.map((m) => (
+            <option key={m}>{m}</option>
+          ))}
+        </select>
+      </label>
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Generation</span>
+        <select
+          className={selectClass}
+          value={params.generation ?? ""}
+          onChange={(e) => setParams({ generation: e.target.value })}
+        >
+          <option value="">all generations</option>
+          {generations.map((g) => (
+            <option key={g}>{g}</option>
+          ))}
+        </select>
+      </label>
+      <label className="block text-sm lg:col-span-2">
+        <span className="mb-1 block font-medium">Fault or system</span>
+        <select
+          className={selectClass}
+          value={params.fault ?? ""}
+          onChange={(e) => setParams({ fault: e.target.value })}
+        >
+          <option value="">all faults</option>
+          <optgroup label="Systems">
+            {systems.map((s) => (
+              <option key={s} value={s}>
+                {s.replace(/-/g, " ")} (whole system)
+              </option>
+            ))}
+          </optgroup>
+          <optgroup label="Components and DTCs">
+            {options.faults.map((f) => (
+              <option key={f.value} value={f.value}>
+                {f.label} ({f.events})
+              </option>
+            ))}
+          </optgroup>
+        </select>
+      </label>
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Bands from</span>
+        <select
+          className={selectClass}
+          value={params.bandFrom ?? ""}
+          onChange={(e) => setParams({ bandFrom: e.target.value })}
+        >
+          <option value="">lowest</option>
+          {options.bands.map((b) => (
+            <option key={b.from} value={b.from}>
+              {b.label}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Bands to</span>
+        <select
+          className={selectClass}
+          value={params.bandTo ?? ""}
+          onChange={(e) => setParams({ bandTo: e.target.value })}
+        >
+          <option value="">highest</option>
+          {options.bands.map((b) => (
+            <option key={b.to} value={b.to}>
+              {b.label}
+            </option>
+          ))}
+        </select>
+      </label>
+      <div className="flex flex-wrap items-center gap-3 text-sm sm:col-span-3 lg:col-span-7">
+        <label className="flex items-center gap-2">
+          <input
+            type="checkbox"
+            checked={params.signals === "1"}
+            onChange={(e) => setParams({ signals: e.target.checked ? "1" : undefined })}
+          />
+          Only signals
+        </label>
+        <button
+          type="button"
+          className={buttonClass.quiet}
+          onClick={() =>
+            setParams({
+              make: undefined,
+              model: undefined,
+              generation: undefined,
+              fault: undefined,
+              bandFrom: undefined,
+              bandTo: undefined,
+              signals: undefined,
+              view: "cohorts",
+            })
+          }
+        >
+          Clear filters
+        </button>
+        <span className="text-ink-soft">
+          The address of this page keeps the filters: copy it to share this view.
+        </span>
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,339 @@
+import "server-only";
+import { sql } from "drizzle-orm";
+import type { Db } from "@/db";
+import { meanCumulativeFunction } from "@/lib/stats";
+import { assertCan, type OrgScope } from "./scope";
+
+/** A fault filter: "P0441" (DTC), "fuel-vapour/purge-valve" (component) or "fuel-vapour" (system). */
+export function faultKeyOf(fault: string): string {
+  const f = fault.trim();
+  if (/^[PCBU][0-3][0-9A-F]{3}$/i.test(f)) return `dtc:${f.toUpperCase()}`;
+  if (f.startsWith("dtc:") || f.startsWith("component:") || f === "all") return f;
+  return `component:${f.toLowerCase()}`;
+}
+
+export type HeatCell = {
+  band: number;
+  bandFrom: number;
+  bandTo: number;
+  events: number;
+  exposureMi: number;
+  vehicles: number;
+  vehiclesAffected: number;
+  rate: number | null;
+  rateLower: number | null;
+  rateUpper: number | null;
+  ratio: number | null;
+  ratioLower: number | null;
+  ratioUpper: number | null;
+  share: number | null;
+  shareLower: number | null;
+  shareUpper: number | null;
+  qValue: number | null;
+  isSignal: boolean;
+  hasTooLittleData: boolean;
+};
+
+export type HeatRow = {
+  id: string;
+  label: string;
+  make: string;
+  model: string;
+  generation: string;
+  faultKey: string;
+  cells: HeatCell[];
+};
+
+const n = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+
+function toHeatCell(r: Record<string, unknown>): HeatCell {
+  return {
+    band: Number(r.band_index),
+    bandFrom: Number(r.band_from_mi),
+    bandTo: Number(r.band_to_mi),
+    events: Number(r.events),
+    exposureMi: Number(r.exposure_mi),
+    vehicles: Number(r.vehicles_at_risk),
+    vehiclesAffected: Number(r.vehicles_affected),
+    rate: n(r.rate_per_10k),
+    rateLower: n(r.rate_lower),
+    rateUpper: n(r.rate_upper),
+    ratio: n(r.rate_ratio),
+    ratioLower: n(r.ratio_lower),
+    ratioUpper: n(r.ratio_upper),
+    share: n(r.share_affected),
+    shareLower: n(r.share_lower),
+    shareUpper: n(r.share_upper),
+    qValue: n(r.q_value),
+    isSignal: Boolean(r.is_signal),
+    hasTooLittleData: Boolean(r.has_too_little_data),
+  };
+}
+
+const CELL_COLUMNS =
+  sql.raw(`c.make, c.model, c.cohort_label, c.fault_key, c.band_index, c.band_from_mi, c.band_to_mi,
+  c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected, c.rate_per_10k, c.rate_lower, c.rate_upper,
+  c.rate_ratio, c.ratio_lower, c.ratio_upper, c.share_affected, c.share_lower, c.share_upper, c.q_value,
+  c.is_signal, c.has_too_little_data`);
+
+export type HeatmapQuery = {
+  /** "cohorts": rows are cohorts for one fault (or all faults); "faults": rows are faults of one cohort. */
+  view: "cohorts" | "faults";
+  fault?: string;
+  make?: string;
+  model?: string;
+  generation?: string;
+  bandFromMi?: number;
+  bandToMi?: number;
+  /** Most rows shown in the fault view (by events). */
+  maxRows?: number;
+};
+
+/**
+ * The heatmap from the latest computed cells (never from raw rows): cohorts × mileage bands for
+ * one fault (or the all-faults totals), or for one cohort, its faults × bands.
+ */
+export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
+  assertCan(scope, "patterns:read");
+  const conds = [sql`c.organisation_id = ${scope.organisationId}`];
+  if (q.view === "cohorts") conds.push(sql`c.fault_key = ${q.fault ? faultKeyOf(q.fault) : "all"}`);
+  else conds.push(sql`c.fault_key <> 'all'`);
+  if (q.make) conds.push(sql`c.make = ${q.make}`);
+  if (q.model) conds.push(sql`c.model = ${q.model}`);
+  if (q.generation) conds.push(sql`c.cohort_label = ${q.generation}`);
+  if (q.bandFromMi !== undefined) conds.push(sql`c.band_to_mi > ${q.bandFromMi}`);
+  if (q.bandToMi !== undefined) conds.push(sql`c.band_from_mi < ${q.bandToMi}`);
+  if (q.view === "faults") {
+    // The faults with the most events in this cohort.
+    conds.push(sql`c.fault_key in (select fault_key from cell_stats
+        where organisation_id = ${scope.organisationId} and fault_key <> 'all'
+          ${q.make ? sql`and make = ${q.make}` : sql``} ${q.model ? sql`and model = ${q.model}` : sql``}
+          ${q.generation ? sql`and cohort_label = ${q.generation}` : sql``}
+        group by fault_key order by sum(events) desc limit ${q.maxRows ?? 25})`);
+  }
+  const rows = await db.all<Record<string, unknown>>(sql`
+    select ${CELL_COLUMNS}, k.name as component_name, k.system as component_system, d.description as dtc_description
+      from cell_stats c
+      left join components k on k.id = c.component_id
+      left join dtc_codes d on d.code = c.dtc
+     where ${sql.join(conds, sql` and `)}
+     order by c.make, c.model, c.cohort_label, c.fault_key, c.band_index`);
+  const byRow = new Map<string, HeatRow>();
+  const bands = new Map<number, { band: number; from: number; to: number }>();
+  for (const r of rows) {
+    const generation = String(r.cohort_label);
+    const faultKey = String(r.fault_key);
+    const id = q.view === "cohorts" ? `${r.make}|${r.model}|${generation}` : faultKey;
+    const faultLabel = faultKey.startsWith("dtc:")
+      ? `${faultKey.slice(4)}${r.dtc_description ? ` ${String(r.dtc_description)}` : ""}`
+      : faultKey.startsWith("component:")
+        ? `${String(r.component_system ?? "")} → ${String(r.component_name ?? faultKey.slice(10))}`
+        : "All faults";
+    let row = byRow.get(id);
+    if (!row) {
+      row = {
+        id,
+        label: q.view === "cohorts" ? `${r.make} ${r.model} ${generation}` : faultLabel,
+        make: String(r.make),
+        model: String(r.model),
+        generation,
+        faultKey,
+        cells: [],
+      };
+      byRow.set(id, row);
+    }
+    const cell = toHeatCell(r);
+    row.cells.push(cell);
+    bands.set(cell.band, { band: cell.band, from: cell.bandFrom, to: cell.bandTo });
+  }
+  return {
+    rows: [...byRow.values()],
+    bands: [...bands.values()].sort((a, b) => a.band - b.band),
+  };
+}
+
+/** Makes, models, generations and faults present in the latest run, for the filter lists. */
+export async function getPatternOptions(db: Db, scope: OrgScope) {
+  assertCan(scope, "patterns:read");
+  const cohorts = await db.all<{ make: string; model: string; generation: string }>(sql`
+    select distinct make, model, cohort_label as generation from cell_stats
+     where organisation_id = ${scope.organisationId} order by make, model, cohort_label`);
+  const faults = await db.all<{ fault_key: string; events: number; label: string | null }>(sql`
+    select c.fault_key, sum(c.events) as events,
+           coalesce(d.description, k.system || ' → ' || k.name) as label
+      from cell_stats c
+      left join dtc_codes d on d.code = c.dtc
+      left join components k on k.id = c.component_id
+     where c.organisation_id = ${scope.organisationId} and c.fault_key <> 'all'
+     group by c.fault_key order by sum(c.events) desc`);
+  return {
+    cohorts,
+    faults: faults.map((f) => ({
+      value: f.fault_key.replace(/^dtc:|^component:/, ""),
+      label: f.fault_key.startsWith("dtc:")
+        ? `${f.fault_key.slice(4)} ${f.label ?? ""}`.trim()
+        : (f.label ?? f.fault_key),
+      events: Number(f.events),
+    })),
+  };
+}
+
+export type CellKey = {
+  make: string;
+  model: string;
+  generation: string;
+  band: number;
+  fault: string;
+  /** Narrow the drill-down's repair lines (not the cell's statistics) to a period or a vendor. */
+  from?: string;
+  to?: string;
+  vendor?: string;
+};
+
+/** The SQL that picks the repair lines behind a cell (its cohort, band and fault). */
+function cellLines(scope: OrgScope, key: CellKey, bandWidthMi: number) {
+  const fk = faultKeyOf(key.fault);
+  const fault = fk.startsWith("dtc:")
+    ? sql`exists (select 1 from repair_line_codes rc where rc.repair_line_id = l.id and rc.dtc = ${fk.slice(4)})`
+    : fk.startsWith("component:")
+      ? sql`l.component_id = (select id from components where slug = ${fk.slice(10)})`
+      : sql`(l.component_id is not null or l.dtc_codes is not null)`;
+  return sql`l.organisation_id = ${scope.organisationId} and v.make = ${key.make} and v.model = ${key.model}
+    and coalesce(g.label, cast(v.model_year as text)) = ${key.generation}
+    and l.odometer_mi >= ${key.band * bandWidthMi} and l.odometer_mi < ${(key.band + 1) * bandWidthMi}
+    and ${fault}`;
+}
+
+/**
+ * Everything the drill-down shows for one cell: its computed statistics, the repair lines
+ * behind it, the vehicles affected, cost and downtime totals, and the mean cumulative function
+ * of this fault over mileage for the whole cohort (Nelson; Lawless–Nadeau limits).
+ */
+export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
+  assertCan(scope, "patterns:read");
+  const fk = faultKeyOf(key.fault);
+  const [cellRow] = await db.all<Record<string, unknown>>(sql`
+    select ${CELL_COLUMNS}, r.band_width_mi, r.confidence_level, r.finished_at,
+           k.name as component_name, k.system as component_system, d.description as dtc_description
+      from cell_stats c join analysis_runs r on r.id = c.run_id
+      left join components k on k.id = c.component_id
+      left join dtc_codes d on d.code = c.dtc
+     where c.organisation_id = ${scope.organisationId} and c.make = ${key.make} and c.model = ${key.model}
+       and c.cohort_label = ${key.generation} and c.band_index = ${key.band} and c.fault_key = ${fk}
+     limit 1`);
+  if (!cellRow) return null;
+  const bandWidthMi = Number(cellRow.band_width_mi);
+  const lines = await db.all<Record<string, unknown>>(sql`
+    select l.id, o.id as order_id, o.ro_number, l.vehicle_id, v.unit_number, v.vin, l.opened_on, o.closed_on,
+           l.odometer_mi, l.complaint, l.cause, l.correction, l.dtc_codes, l.parts_cost_cents, l.labor_cost_cents,
+           l.labor_hours, l.technician, coalesce(l.vendor, o.vendor) as vendor
+      from repair_lines l
+      join repair_orders o on o.id = l.repair_order_id
+      join vehicles v on v.id = l.vehicle_id
+      left join generations g on g.id = v.generation_id
+     where ${cellLines(scope, key, bandWidthMi)}
+       ${key.from ? sql`and l.opened_on >= ${key.from}` : sql``}
+       ${key.to ? sql`and l.opened_on <= ${key.to}` : sql``}
+       ${key.vendor ? sql`and coalesce(l.vendor, o.vendor) = ${key.vendor}` : sql``}
+     order by l.opened_on desc, l.id desc
+     limit 2000`);
+  const vendorRows = await db.all<{ vendor: string }>(sql`
+    select distinct coalesce(l.vendor, o.vendor) as vendor
+      from repair_lines l
+      join repair_orders o on o.id = l.repair_order_id
+      join vehicles v on v.id = l.vehicle_id
+      left join generations g on g.id = v.generation_id
+     where ${cellLines(scope, key, bandWidthMi)} and coalesce(l.vendor, o.vendor) is not null
+     order by 1 limit 200`);
+  // MCF over mileage for the cohort: each vehicle observed up to its last odometer reading.
+  const histories = await db.all<{ vehicle_id: number; end_mi: number | null }>(sql`
+    select v.id as vehicle_id, v.last_odometer_mi as end_mi
+      from vehicles v left join generations g on g.id = v.generation_id
+     where v.organisation_id = ${scope.organisationId} and v.make = ${key.make} and v.model = ${key.model}
+       and coalesce(g.label, cast(v.model_year as text)) = ${key.generation}`);
+  const faultAll = { ...key, band: 0 };
+  const cohortEvents = await db.all<{ vehicle_id: number; odometer_mi: number }>(sql`
+    select l.vehicle_id, l.odometer_mi from repair_lines l
+      join vehicles v on v.id = l.vehicle_id left join generations g on g.id = v.generation_id
+     where ${cellLines(scope, faultAll, Number.MAX_SAFE_INTEGER / 4)} and l.odometer_mi is not null`);
+  const eventsByVehicle = new Map<number, number[]>();
+  for (const e of cohortEvents) {
+    const list = eventsByVehicle.get(Number(e.vehicle_id)) ?? [];
+    list.push(Number(e.odometer_mi));
+    eventsByVehicle.set(Number(e.vehicle_id), list);
+  }
+  const units = histories
+    .filter((h) => h.end_mi !== null && Number(h.end_mi) > 0)
+    .map((h) => {
+      const end = Number(h.end_mi);
+      const events = (eventsByVehicle.get(Number(h.vehicle_id)) ?? []).filter((at) => at <= end);
+      return { end, events };
+    });
+  const mcf = units.length ? meanCumulativeFunction(units, Number(cellRow.confidence_level)) : [];
+
+  const costCents = lines.reduce(
+    (s, l) => s + Number(l.parts_cost_cents ?? 0) + Number(l.labor_cost_cents ?? 0),
+    0,
+  );
+  const orderDays = new Map<number, number>();
+  for (const l of lines) {
+    if (!l.closed_on) continue;
+    const days = (Date.parse(String(l.closed_on)) - Date.parse(String(l.opened_on))) / 86_400_000;
+    if (Number.isFinite(days) && days >= 0) orderDays.set(Number(l.order_id), days);
+  }
+  const vehicles = new Map<
+    number,
+    { vehicleId: number; unitNumber: string | null; vin: string | null; repairs: number }
+  >();
+  for (const l of lines) {
+    const id = Number(l.vehicle_id);
+    const v = vehicles.get(id) ?? {
+      vehicleId: id,
+      unitNumber: l.unit_number ? String(l.unit_number) : null,
+      vin: l.vin ? String(l.vin) : null,
+      repairs: 0,
+    };
+    v.repairs++;
+    vehicles.set(id, v);
+  }
+  const faultLabel = fk.startsWith("dtc:")
+    ? `${fk.slice(4)}${cellRow.dtc_description ? ` ${String(cellRow.dtc_description)}` : ""}`
+    : fk.startsWith("component:")
+      ? `${String(cellRow.component_system)} → ${String(cellRow.component_name)}`
+      : "All faults";
+  return {
+    cell: toHeatCell(cellRow),
+    faultKey: fk,
+    faultLabel,
+    confidenceLevel: Number(cellRow.confidence_level),
+    computedAt: String(cellRow.finished_at),
+    lines: lines.map((l) => ({
+      id: Number(l.id),
+      roNumber: String(l.ro_number),
+      vehicleId: Number(l.vehicle_id),
+      unitNumber: l.unit_number ? String(l.unit_number) : null,
+      vin: l.vin ? String(l.vin) : null,
+      openedOn: String(l.opened_on),
+      closedOn: l.closed_on ? String(l.closed_on) : null,
+      odometerMi: n(l.odometer_mi),
+      complaint: l.complaint ? String(l.complaint) : null,
+      cause: l.cause ? String(l.cause) : null,
+      correction: l.correction ? String(l.correction) : null,
+      dtcCodes: l.dtc_codes ? String(l.dtc_codes) : null,
+      costCents: Number(l.parts_cost_cents ?? 0) + Number(l.labor_cost_cents ?? 0),
+      laborHours: n(l.labor_hours),
+      technician: l.technician ? String(l.technician) : null,
+      vendor: l.vendor ? String(l.vendor) : null,
+    })),
+    isCapped: lines.length >= 2000,
+    isFiltered: Boolean(key.from || key.to || key.vendor),
+    vendors: vendorRows.map((r) => String(r.vendor)),
+    vehicles: [...vehicles.values()].sort((a, b) => b.repairs - a.repairs),
+    totals: {
+      costCents,
+      downtimeDays: [...orderDays.values()].reduce((s, d) => s + d, 0),
+      orders: new Set(lines.map((l) => Number(l.order_id))).size,
+    },
+    mcf: { units: units.length, points: mcf },
+  };
+}

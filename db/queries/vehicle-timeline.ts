@@ -1,0 +1,518 @@
+import "server-only";
+import { and, asc, desc, eq, gt, ne, or, sql } from "drizzle-orm";
+import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
+import type { Db } from "@/db";
+import {
+  analysisRuns,
+  cellStats,
+  components,
+  dtcCodes,
+  faultEvents,
+  fuelTransactions,
+  generations,
+  odometerReadings,
+  repairLineCodes,
+  repairLines,
+  repairOrders,
+  vehicles,
+  type FaultStatus,
+  type Symptom,
+} from "@/db/schema";
+import { cleanOdometerReadings } from "@/lib/stats";
+import { assertCan, countRows, orgWhere, type OrgScope } from "./scope";
+
+/**
+ * Most rows of one kind returned for a vehicle (the latest ones). Repair lines are not capped: a
+ * vehicle has at most hundreds; telematics fault events and fill-ups can run to thousands.
+ */
+export const TIMELINE_RECORD_LIMIT = 5000;
+
+/**
+ * Every record carries isOdometerDoubtful: its reading is one the statistics ignore as well
+ * (cleanOdometerReadings over all of the vehicle's readings: backwards, or an impossible jump).
+ */
+export type TimelineRepairLine = {
+  id: number;
+  repairOrderId: number;
+  roNumber: string;
+  lineNo: number;
+  openedOn: string;
+  closedOn: string | null;
+  odometerMi: number | null;
+  complaint: string | null;
+  cause: string | null;
+  correction: string | null;
+  /** The line's DTCs, one each (from repair_line_codes). */
+  dtcs: string[];
+  componentId: number | null;
+  componentSlug: string | null;
+  componentSystem: string | null;
+  componentName: string | null;
+  symptom: Symptom | null;
+  laborHours: number | null;
+  partsCostCents: number | null;
+  laborCostCents: number | null;
+  partNumbers: string | null;
+  technician: string | null;
+  /** The line's vendor, or the repair order's. */
+  vendor: string | null;
+  isWarranty: boolean;
+  isOdometerDoubtful: boolean;
+};
+
+export type TimelineFaultEvent = {
+  id: number;
+  occurredAt: string;
+  odometerMi: number | null;
+  dtc: string;
+  /** Recurra's description of the code, when the code is in its list. */
+  description: string | null;
+  milOn: boolean;
+  status: FaultStatus;
+  isOdometerDoubtful: boolean;
+};
+
+export type TimelineFillUp = {
+  id: number;
+  filledAt: string;
+  odometerMi: number | null;
+  volumeL: number | null;
+  priceTotalCents: number | null;
+  station: string | null;
+  isOdometerDoubtful: boolean;
+};
+
+export type TimelineOdometerReading = {
+  id: number;
+  readOn: string;
+  odometerMi: number;
+  source: "roster" | "manual";
+  isOdometerDoubtful: boolean;
+};
+
+/**
+ * Where the vehicle's current odometer stands against a cell's mileage band: inside it, before
+ * it by at most one band width (approaching), further before it (ahead), beyond it (past), or
+ * unknown when the vehicle has no reading.
+ */
+export const BAND_POSITIONS = ["inside", "approaching", "ahead", "past", "unknown"] as const;
+export type BandPosition = (typeof BAND_POSITIONS)[number];
+
+/** A cell of the vehicle's cohort that is a signal or ranks high, and this vehicle against it. */
+export type MatchedPattern = {
+  make: string;
+  model: string;
+  /** Generation label, or the model year when no generation covers the vehicle. */
+  cohortLabel: string;
+  bandIndex: number;
+  bandFromMi: number;
+  bandToMi: number;
+  /** "dtc:P0496" or "component:fuel-vapour/purge-valve", as the pattern drill-down takes it. */
+  faultKey: string;
+  dtc: string | null;
+  dtcDescription: string | null;
+  componentSlug: string | null;
+  componentSystem: string | null;
+  componentName: string | null;
+  events: number;
+  exposureMi: number;
+  vehiclesAtRisk: number;
+  vehiclesAffected: number;
+  /** Repairs per 10,000 mi of exposure, with its interval at the run's confidence level. */
+  ratePer10k: number | null;
+  rateLower: number | null;
+  rateUpper: number | null;
+  /** Against the rest of the fleet in the same band; null with events when the rest had none. */
+  rateRatio: number | null;
+  ratioLower: number | null;
+  ratioUpper: number | null;
+  qValue: number | null;
+  isSignal: boolean;
+  position: BandPosition;
+  /** This vehicle's repair lines on this fault, at any mileage and inside the band. */
+  vehicleRepairs: number;
+  vehicleRepairsInBand: number;
+  /** This vehicle's fault-code events with this DTC (0 for a component fault). */
+  vehicleFaultEvents: number;
+  hasHadFault: boolean;
+};
+
+export type VehicleTimeline = {
+  vehicle: {
+    id: number;
+    make: string;
+    model: string;
+    modelYear: number;
+    cohortLabel: string;
+    lastOdometerMi: number | null;
+    lastOdometerOn: string | null;
+    /** The roster's last reading, or else the highest plausible reading on any record. */
+    currentOdometerMi: number | null;
+  };
+  totals: {
+    repairOrders: number;
+    repairLines: number;
+    faultEvents: number;
+    fillUps: number;
+    odometerReadings: number;
+    partsCostCents: number;
+    laborCostCents: number;
+    fuelCostCents: number;
+  };
+  /** Each list is sorted by time, oldest first; capped lists hold the latest records. */
+  repairLines: TimelineRepairLine[];
+  faultEvents: TimelineFaultEvent[];
+  fillUps: TimelineFillUp[];
+  odometerReadings: TimelineOdometerReading[];
+  isCapped: { faultEvents: boolean; fillUps: boolean; odometerReadings: boolean };
+  /** The latest finished analysis run, or null before the first recompute. */
+  analysis: {
+    runId: number;
+    finishedAt: string | null;
+    bandWidthMi: number;
+    confidenceLevel: number;
+  } | null;
+  /** Inside and approaching first, then ahead and past; signals before high ranks. */
+  patterns: MatchedPattern[];
+};
+
+const POSITION_ORDER: Record<BandPosition, number> = {
+  inside: 0,
+  approaching: 1,
+  ahead: 2,
+  past: 3,
+  unknown: 4,
+};
+
+export function bandPosition(
+  odometerMi: number | null,
+  fromMi: number,
+  toMi: number,
+): BandPosition {
+  if (odometerMi === null) return "unknown";
+  if (odometerMi >= toMi) return "past";
+  if (odometerMi >= fromMi) return "inside";
+  return fromMi - odometerMi <= toMi - fromMi ? "approaching" : "ahead";
+}
+
+const toNumber = (v: unknown): number => Number(v ?? 0);
+const maxOf = (values: (number | null)[]): number | null =>
+  values.reduce<number | null>((m, v) => (v !== null && (m === null || v > m) ? v : m), null);
+
+/**
+ * One vehicle's repairs, fault-code events, fill-ups and roster readings, each sorted by time,
+ * with totals and the cells of the latest analysis run that the vehicle's cohort shows as
+ * signals or high ranks (lower bound of the rate ratio above 1). Null when the vehicle is not
+ * in the caller's organisation.
+ */
+export async function getVehicleTimeline(
+  db: Db,
+  scope: OrgScope,
+  vehicleId: number,
+): Promise<VehicleTimeline | null> {
+  assertCan(scope, "vehicles:read");
+  const [vehicle] = await db
+    .select({
+      id: vehicles.id,
+      make: vehicles.make,
+      model: vehicles.model,
+      modelYear: vehicles.modelYear,
+      // The recompute's cohort label (jobs/recompute/cohorts.ts COHORT_LABEL_SQL).
+      cohortLabel: sql<string>`coalesce(${generations.label}, cast(${vehicles.modelYear} as text))`,
+      lastOdometerMi: vehicles.lastOdometerMi,
+      lastOdometerOn: vehicles.lastOdometerOn,
+    })
+    .from(vehicles)
+    .leftJoin(generations, eq(generations.id, vehicles.generationId))
+    .where(orgWhere(vehicles, scope, eq(vehicles.id, vehicleId)))
+    .limit(1);
+  if (!vehicle) return null;
+  const ofVehicle = (column: SQLiteColumn) => eq(column, vehicleId);
+
+  const [lines, codes, faults, fills, readings, faultCounts, lineTotals, fillTotals, run] =
+    await Promise.all([
+      db
+        .select({
+          id: repairLines.id,
+          repairOrderId: repairLines.repairOrderId,
+          roNumber: repairOrders.roNumber,
+          lineNo: repairLines.lineNo,
+          openedOn: repairLines.openedOn,
+          closedOn: repairOrders.closedOn,
+          odometerMi: repairLines.odometerMi,
+          complaint: repairLines.complaint,
+          cause: repairLines.cause,
+          correction: repairLines.correction,
+          componentId: repairLines.componentId,
+          componentSlug: components.slug,
+          componentSystem: components.system,
+          componentName: components.name,
+          symptom: repairLines.symptom,
+          laborHours: repairLines.laborHours,
+          partsCostCents: repairLines.partsCostCents,
+          laborCostCents: repairLines.laborCostCents,
+          partNumbers: repairLines.partNumbers,
+          technician: repairLines.technician,
+          vendor: sql<string | null>`coalesce(${repairLines.vendor}, ${repairOrders.vendor})`,
+          isWarranty: repairLines.isWarranty,
+        })
+        .from(repairLines)
+        .innerJoin(
+          repairOrders,
+          and(
+            eq(repairOrders.id, repairLines.repairOrderId),
+            eq(repairOrders.organisationId, scope.organisationId),
+          ),
+        )
+        .leftJoin(components, eq(components.id, repairLines.componentId))
+        .where(orgWhere(repairLines, scope, ofVehicle(repairLines.vehicleId)))
+        .orderBy(
+          asc(repairLines.openedOn),
+          asc(repairLines.repairOrderId),
+          asc(repairLines.lineNo),
+          asc(repairLines.id),
+        ),
+      db
+        .select({ lineId: repairLineCodes.repairLineId, dtc: repairLineCodes.dtc })
+        .from(repairLineCodes)
+        .where(orgWhere(repairLineCodes, scope, ofVehicle(repairLineCodes.vehicleId)))
+        .orderBy(asc(repairLineCodes.id)),
+      db
+        .select({
+          id: faultEvents.id,
+          occurredAt: faultEvents.occurredAt,
+          odometerMi: faultEvents.odometerMi,
+          dtc: faultEvents.dtc,
+          description: dtcCodes.description,
+          milOn: faultEvents.milOn,
+          status: faultEvents.status,
+        })
+        .from(faultEvents)
+        .leftJoin(dtcCodes, eq(dtcCodes.code, faultEvents.dtc))
+        .where(orgWhere(faultEvents, scope, ofVehicle(faultEvents.vehicleId)))
+        .orderBy(desc(faultEvents.occurredAt), desc(faultEvents.id))
+        .limit(TIMELINE_RECORD_LIMIT),
+      db
+        .select({
+          id: fuelTransactions.id,
+          filledAt: fuelTransactions.filledAt,
+          odometerMi: fuelTransactions.odometerMi,
+          volumeL: fuelTransactions.volumeL,
+          priceTotalCents: fuelTransactions.priceTotalCents,
+          station: fuelTransactions.station,
+        })
+        .from(fuelTransactions)
+        .where(orgWhere(fuelTransactions, scope, ofVehicle(fuelTransactions.vehicleId)))
+        .orderBy(desc(fuelTransactions.filledAt), desc(fuelTransactions.id))
+        .limit(TIMELINE_RECORD_LIMIT),
+      db
+        .select({
+          id: odometerReadings.id,
+          readOn: odometerReadings.readOn,
+          odometerMi: odometerReadings.odometerMi,
+          source: odometerReadings.source,
+        })
+        .from(odometerReadings)
+        .where(orgWhere(odometerReadings, scope, ofVehicle(odometerReadings.vehicleId)))
+        .orderBy(desc(odometerReadings.readOn), desc(odometerReadings.id))
+        .limit(TIMELINE_RECORD_LIMIT),
+      db
+        .select({ dtc: faultEvents.dtc, n: sql<number>`count(*)` })
+        .from(faultEvents)
+        .where(orgWhere(faultEvents, scope, ofVehicle(faultEvents.vehicleId)))
+        .groupBy(faultEvents.dtc),
+      db
+        .select({
+          n: sql<number>`count(*)`,
+          parts: sql<number>`coalesce(sum(${repairLines.partsCostCents}), 0)`,
+          labour: sql<number>`coalesce(sum(${repairLines.laborCostCents}), 0)`,
+        })
+        .from(repairLines)
+        .where(orgWhere(repairLines, scope, ofVehicle(repairLines.vehicleId))),
+      db
+        .select({
+          n: sql<number>`count(*)`,
+          price: sql<number>`coalesce(sum(${fuelTransactions.priceTotalCents}), 0)`,
+        })
+        .from(fuelTransactions)
+        .where(orgWhere(fuelTransactions, scope, ofVehicle(fuelTransactions.vehicleId))),
+      db
+        .select({
+          id: analysisRuns.id,
+          finishedAt: analysisRuns.finishedAt,
+          bandWidthMi: analysisRuns.bandWidthMi,
+          confidenceLevel: analysisRuns.confidenceLevel,
+        })
+        .from(analysisRuns)
+        .where(orgWhere(analysisRuns, scope, eq(analysisRuns.status, "done")))
+        .orderBy(desc(analysisRuns.id))
+        .limit(1),
+    ]);
+  const [repairOrderCount, faultEventCount, readingCount] = await Promise.all([
+    countRows(db, repairOrders, orgWhere(repairOrders, scope, ofVehicle(repairOrders.vehicleId))),
+    countRows(db, faultEvents, orgWhere(faultEvents, scope, ofVehicle(faultEvents.vehicleId))),
+    countRows(
+      db,
+      odometerReadings,
+      orgWhere(odometerReadings, scope, ofVehicle(odometerReadings.vehicleId)),
+    ),
+  ]);
+
+  const codesByLine = new Map<number, string[]>();
+  for (const c of codes) codesByLine.set(c.lineId, [...(codesByLine.get(c.lineId) ?? []), c.dtc]);
+  const datedLines = lines.map((l) => ({ ...l, dtcs: codesByLine.get(l.id) ?? [] }));
+  faults.reverse();
+  fills.reverse();
+  readings.reverse();
+  // The same cleaning rule as the statistics' exposure, over all of the vehicle's readings.
+  const dated = [
+    ...datedLines.map((r) => ({ at: r.openedOn, odometer: r.odometerMi, r })),
+    ...faults.map((r) => ({ at: r.occurredAt, odometer: r.odometerMi, r })),
+    ...fills.map((r) => ({ at: r.filledAt, odometer: r.odometerMi, r })),
+    ...readings.map((r) => ({ at: r.readOn, odometer: r.odometerMi, r })),
+  ].filter((d): d is typeof d & { odometer: number } => d.odometer !== null);
+  const { kept } = cleanOdometerReadings(dated);
+  const plausible = new Set<object>(kept.map((k) => k.r));
+  const flag = <T extends { odometerMi: number | null }>(r: T) => ({
+    ...r,
+    isOdometerDoubtful: r.odometerMi !== null && !plausible.has(r),
+  });
+  const repairs: TimelineRepairLine[] = datedLines.map(flag);
+  const subject: VehicleTimeline["vehicle"] = {
+    ...vehicle,
+    cohortLabel: String(vehicle.cohortLabel),
+    currentOdometerMi: vehicle.lastOdometerMi ?? maxOf(kept.map((k) => k.odometer)),
+  };
+  const [lineTotal] = lineTotals;
+  const [fillTotal] = fillTotals;
+  const [latestRun] = run;
+  const faultEventsByDtc = new Map(faultCounts.map((f) => [f.dtc, toNumber(f.n)]));
+  return {
+    vehicle: subject,
+    totals: {
+      repairOrders: repairOrderCount,
+      repairLines: toNumber(lineTotal?.n),
+      faultEvents: faultEventCount,
+      fillUps: toNumber(fillTotal?.n),
+      odometerReadings: readingCount,
+      partsCostCents: toNumber(lineTotal?.parts),
+      laborCostCents: toNumber(lineTotal?.labour),
+      fuelCostCents: toNumber(fillTotal?.price),
+    },
+    repairLines: repairs,
+    faultEvents: faults.map(flag),
+    fillUps: fills.map(flag),
+    odometerReadings: readings.map(flag),
+    isCapped: {
+      faultEvents: faultEventCount > faults.length,
+      fillUps: toNumber(fillTotal?.n) > fills.length,
+      odometerReadings: readingCount > readings.length,
+    },
+    analysis: latestRun
+      ? {
+          runId: latestRun.id,
+          finishedAt: latestRun.finishedAt,
+          bandWidthMi: latestRun.bandWidthMi,
+          confidenceLevel: latestRun.confidenceLevel,
+        }
+      : null,
+    patterns: latestRun
+      ? await listMatchedPatterns(db, scope, {
+          runId: latestRun.id,
+          vehicle: subject,
+          repairs,
+          faultEventsByDtc,
+        })
+      : [],
+  };
+}
+
+/** The cohort's cells that stand out in the run, with this vehicle's position and history. */
+async function listMatchedPatterns(
+  db: Db,
+  scope: OrgScope,
+  input: {
+    runId: number;
+    vehicle: Pick<
+      VehicleTimeline["vehicle"],
+      "make" | "model" | "cohortLabel" | "currentOdometerMi"
+    >;
+    repairs: TimelineRepairLine[];
+    faultEventsByDtc: Map<string, number>;
+  },
+): Promise<MatchedPattern[]> {
+  const { vehicle, repairs } = input;
+  const cells = await db
+    .select({
+      make: cellStats.make,
+      model: cellStats.model,
+      cohortLabel: cellStats.cohortLabel,
+      bandIndex: cellStats.bandIndex,
+      bandFromMi: cellStats.bandFromMi,
+      bandToMi: cellStats.bandToMi,
+      faultKey: cellStats.faultKey,
+      dtc: cellStats.dtc,
+      dtcDescription: dtcCodes.description,
+      componentId: cellStats.componentId,
+      componentSlug: components.slug,
+      componentSystem: components.system,
+      componentName: components.name,
+      events: cellStats.events,
+      exposureMi: cellStats.exposureMi,
+      vehiclesAtRisk: cellStats.vehiclesAtRisk,
+      vehiclesAffected: cellStats.vehiclesAffected,
+      ratePer10k: cellStats.ratePer10k,
+      rateLower: cellStats.rateLower,
+      rateUpper: cellStats.rateUpper,
+      rateRatio: cellStats.rateRatio,
+      ratioLower: cellStats.ratioLower,
+      ratioUpper: cellStats.ratioUpper,
+      qValue: cellStats.qValue,
+      isSignal: cellStats.isSignal,
+    })
+    .from(cellStats)
+    .leftJoin(components, eq(components.id, cellStats.componentId))
+    .leftJoin(dtcCodes, eq(dtcCodes.code, cellStats.dtc))
+    .where(
+      orgWhere(
+        cellStats,
+        scope,
+        eq(cellStats.runId, input.runId),
+        eq(cellStats.make, vehicle.make),
+        eq(cellStats.model, vehicle.model),
+        eq(cellStats.cohortLabel, vehicle.cohortLabel),
+        ne(cellStats.faultKey, "all"),
+        or(eq(cellStats.isSignal, true), gt(cellStats.ratioLower, 1)),
+      ),
+    );
+  return cells
+    .map(({ componentId, ...cell }): MatchedPattern => {
+      const onFault = repairs.filter(
+        (r) =>
+          (cell.dtc !== null && r.dtcs.includes(cell.dtc)) ||
+          (componentId !== null && r.componentId === componentId),
+      );
+      const inBand = onFault.filter(
+        (r) =>
+          r.odometerMi !== null && r.odometerMi >= cell.bandFromMi && r.odometerMi < cell.bandToMi,
+      );
+      const vehicleFaultEvents =
+        cell.dtc === null ? 0 : (input.faultEventsByDtc.get(cell.dtc) ?? 0);
+      return {
+        ...cell,
+        position: bandPosition(vehicle.currentOdometerMi, cell.bandFromMi, cell.bandToMi),
+        vehicleRepairs: onFault.length,
+        vehicleRepairsInBand: inBand.length,
+        vehicleFaultEvents,
+        hasHadFault: onFault.length > 0 || vehicleFaultEvents > 0,
+      };
+    })
+    .sort(
+      (a, b) =>
+        POSITION_ORDER[a.position] - POSITION_ORDER[b.position] ||
+        Number(b.isSignal) - Number(a.isSignal) ||
+        (b.ratioLower ?? 0) - (a.ratioLower ?? 0) ||
+        a.bandIndex - b.bandIndex ||
+        a.faultKey.localeCompare(b.faultKey),
+    );
+}

@@ -1,0 +1,151 @@
+import AxeBuilder from "@axe-core/playwright";
+import type { Page } from "@playwright/test";
+import { expect, screenshot, signIn, test } from "./support";
+
+/** Serious and critical accessibility problems found by axe-core on the current page. */
+async function seriousViolations(page: Page) {
+  const result = await new AxeBuilder({ page }).analyze();
+  return result.violations
+    .filter((v) => v.impact === "serious" || v.impact === "critical")
+    .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
+}
+
+/** Hovers the heatmap cell at a row label and a column label. */
+async function hoverCell(page: Page, rowLabel: string, columnLabel: string) {
+  const map = page.getByTestId("heatmap");
+  const rowText = map.locator("text", { hasText: new RegExp(`^${rowLabel}$`) }).first();
+  await rowText.scrollIntoViewIfNeeded();
+  const row = await rowText.boundingBox();
+  const column = await map
+    .locator("text", { hasText: new RegExp(`^${columnLabel}$`) })
+    .first()
+    .boundingBox();
+  if (!row || !column) throw new Error("heatmap labels not found");
+  await page.mouse.move(column.x + column.width / 2, row.y + row.height / 2);
+}
+
+test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-down, export", async ({
+  page,
+  browser,
+  baseURL,
+}) => {
+  await signIn(page, "manager");
+  await page.goto("/patterns");
+  // A planted pattern (Merlin M2 shift faults past 75,000 mi, or Kestrel K3 no-starts) tops the list.
+  const ranked = page.getByRole("table", { name: /Recurring failures ranked/ });
+  const first = ranked.getByRole("row").nth(1);
+  await expect(first).toContainText(/Aurel (Merlin M2|Kestrel K3)/);
+  await expect(first.getByText("signal")).toBeVisible();
+  await screenshot(page, "patterns-explorer");
+
+  // The same pattern as a strong, certain cell: the top colour of the ratio scale.
+  await page.goto("/patterns?fault=P0730&metric=ratio");
+  await expect(page.getByTestId("heatmap")).toBeVisible();
+  await hoverCell(page, "Aurel Merlin M2", "150k–175k");
+  const tooltip = page.getByRole("tooltip");
+  await expect(tooltip).toContainText("Aurel Merlin M2");
+  await expect(tooltip.getByTestId("tooltip-interval")).toHaveText(/^\d[\d.,]*–(∞|\d)/);
+  await expect(tooltip).toContainText("exact conditional");
+  await expect(tooltip).toContainText("Signal");
+  await screenshot(page, "patterns-heatmap-tooltip");
+
+  // A sparse cell shows as uncertain ("too little data"), never as a zero.
+  await page.getByText("Show the heatmap as a table").click();
+  await expect(page.getByRole("button", { name: /too little data/ }).first()).toBeVisible();
+
+  // Filter to one make; the address keeps the view, and another browser opens the same view.
+  await page.getByLabel("Make").selectOption("Brindle");
+  await expect(page).toHaveURL(/make=Brindle/);
+  await expect(ranked.getByRole("row").nth(1)).toContainText("Brindle");
+  const shared = page.url();
+  const other = await browser.newContext({ baseURL });
+  const second = await other.newPage();
+  await signIn(second, "manager");
+  await second.goto(shared);
+  await expect(second.getByLabel("Make")).toHaveValue("Brindle");
+  await expect(
+    second
+      .getByRole("table", { name: /Recurring failures ranked/ })
+      .getByRole("row")
+      .nth(1),
+  ).toHaveText((await ranked.getByRole("row").nth(1).textContent()) ?? "");
+  await other.close();
+
+  // Export: CSV of the filtered ranking, safe for spreadsheets.
+  const csvHref = await page.getByRole("link", { name: "Download CSV" }).getAttribute("href");
+  const csv = await page.request.get(csvHref ?? "");
+  expect(csv.headers()["content-type"]).toContain("text/csv");
+  const lines = (await csv.text())
+    .replace(/^\uFEFF/, "")
+    .trim()
+    .split("\r\n");
+  expect(lines[0]).toBe(
+    "make,model,generation,yearFrom,yearTo,bandFrom,bandTo,dtc,component,events,exposureMiles,vehicles,vehiclesAffected,rate,rateLower,rateUpper,ratio,ratioLower,ratioUpper,pValue,qValue,shrunkRate,signal",
+  );
+  expect(lines.length).toBeGreaterThan(1);
+  expect(lines.slice(1).every((l) => l.startsWith("Brindle,"))).toBe(true);
+
+  // Drill down from the ranked list.
+  await page.goto("/patterns?fault=P0730");
+  await page
+    .getByRole("table", { name: /Recurring failures ranked/ })
+    .getByRole("row")
+    .nth(1)
+    .getByRole("link")
+    .click();
+  await expect(page).toHaveURL(/\/patterns\/cell\?/);
+  await expect(page.getByTestId("cell-sentence")).toContainText(
+    /repairs per 10,000 mi, 95% [\d.]+–[\d.]+/,
+  );
+  await expect(
+    page
+      .getByRole("region", { name: /Recurrence over mileage/ })
+      .locator("svg")
+      .first(),
+  ).toBeVisible();
+  await expect(page.getByRole("button", { name: /Start a known issue/ })).toBeDisabled();
+  const ordersCsv = await page.request.get(
+    (await page.getByRole("link", { name: "Download CSV" }).getAttribute("href")) ?? "",
+  );
+  expect((await ordersCsv.text()).split("\r\n")[0]).toContain("ro_number,unit_number,vin");
+  await screenshot(page, "patterns-drill-down");
+
+  // Narrow the repair orders to one vendor; empty dates are no filter; the CSV follows.
+  const narrow = page.getByRole("form", { name: "Narrow the repair orders" });
+  const vendor = await narrow.getByLabel("Vendor").locator("option").nth(1).getAttribute("value");
+  await narrow.getByLabel("Vendor").selectOption(vendor ?? "");
+  await narrow.getByRole("button", { name: "Apply" }).click();
+  await expect(page).toHaveURL(/vendor=/);
+  await expect(page.getByTestId("cell-lines-count")).toContainText("of the cell's");
+  const narrowedCsv = await page.request.get(
+    (await page.getByRole("link", { name: "Download CSV" }).getAttribute("href")) ?? "",
+  );
+  const rows = (await narrowedCsv.text()).trim().split("\r\n").slice(1);
+  expect(rows.length).toBeGreaterThan(0);
+  expect(rows.every((r) => r.includes(vendor ?? "?"))).toBe(true);
+});
+
+test("an unknown cell is a 404, and a bad filter is answered with 400", async ({ page }) => {
+  await signIn(page, "viewer");
+  const res = await page.goto("/patterns/cell?make=Nope&model=X&generation=Y&band=1&fault=P0300");
+  expect(res?.status()).toBe(404);
+  const api = await page.request.get("/api/cells?limit=abc");
+  expect(api.status()).toBe(400);
+});
+
+test("the explorer and the drill-down have no serious accessibility problems (axe-core)", async ({
+  page,
+}) => {
+  await signIn(page, "manager");
+  await page.goto("/patterns?fault=P0730");
+  await expect(page.getByTestId("heatmap")).toBeVisible();
+  expect(await seriousViolations(page)).toEqual([]);
+  await page
+    .getByRole("table", { name: /Recurring failures ranked/ })
+    .getByRole("row")
+    .nth(1)
+    .getByRole("link")
+    .click();
+  await expect(page.getByTestId("cell-sentence")).toBeVisible();
+  expect(await seriousViolations(page)).toEqual([]);
+});
