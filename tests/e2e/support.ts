@@ -6,6 +6,7 @@ export const ACCOUNTS = {
   admin: "admin@recurra.example",
   manager: "manager@recurra.example",
   technician: "technician@recurra.example",
+  shopManager: "shop-manager@recurra.example",
   viewer: "viewer@recurra.example",
 } as const;
 export type DemoRole = keyof typeof ACCOUNTS;

@@ -38,6 +38,12 @@ export const DEMO_ACCOUNTS: readonly DemoAccount[] = [
     organisations: ["northgate"],
   },
   {
+    email: "shop-manager@recurra.example",
+    name: "Marit Oduya",
+    role: "manager",
+    organisations: ["northgate"],
+  },
+  {
     email: "viewer@recurra.example",
     name: "Sunniva Pell",
     role: "viewer",

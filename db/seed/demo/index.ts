@@ -1,8 +1,9 @@
 import type { Db } from "@/db";
 import { hashPassword } from "@/lib/auth/password";
 import { listComponentIds, loadReferenceData } from "../reference";
-import { DEMO_ACCOUNTS, DEMO_ORG_SLUGS, DEMO_PASSWORD } from "./accounts";
+import { DEMO_ACCOUNTS, DEMO_ORG_SLUGS, DEMO_PASSWORD, type DemoOrgSlug } from "./accounts";
 import { buildDemoDataset, DEFAULT_DEMO_SEED } from "./dataset";
+import { insertDemoKnownIssues } from "./known-issues";
 import {
   countDemoRows,
   deleteOrganisations,
@@ -88,6 +89,9 @@ export async function loadDemo(db: Db, opts: LoadDemoOptions = {}): Promise<Demo
       organisationIds.set(org.slug, await insertDemoOrganisation(tx, org, componentIds, log));
     }
     await upsertDemoAccounts(tx, hashes, organisationIds);
+    for (const [slug, id] of organisationIds) {
+      await insertDemoKnownIssues(tx, slug as DemoOrgSlug, id);
+    }
     return true;
   });
   return summarise(didLoad ? "loaded" : "already-loaded");

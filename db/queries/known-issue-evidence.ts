@@ -1,0 +1,232 @@
+import "server-only";
+import { sql, type SQL } from "drizzle-orm";
+import type { Db } from "@/db";
+import { findComebacks } from "@/lib/comebacks";
+import { wilsonInterval, type ProportionInterval } from "@/lib/stats";
+import { unitToMiles } from "@/lib/units";
+import type { KnownIssueDetail } from "./known-issues";
+import { assertCan, type OrgScope } from "./scope";
+
+/** What a known issue is about, enough to find its repairs, cells and vehicles. */
+export type IssueScope = Pick<
+  KnownIssueDetail,
+  "cohorts" | "dtcCodes" | "component" | "mileageFromMi" | "mileageToMi"
+>;
+
+/** Vehicles (alias v) in the issue's cohorts. */
+function cohortSql(issue: IssueScope): SQL {
+  if (issue.cohorts.length === 0) return sql`0`;
+  return sql`(${sql.join(
+    issue.cohorts.map((c) =>
+      c.generationId === null
+        ? sql`(v.make = ${c.make} and v.model = ${c.model})`
+        : sql`(v.make = ${c.make} and v.model = ${c.model} and v.generation_id = ${c.generationId})`,
+    ),
+    sql` or `,
+  )})`;
+}
+
+/** Repair lines (alias l) that fix the issue's fault: one of its DTCs or its component. */
+export function faultSql(issue: Pick<IssueScope, "dtcCodes" | "component">): SQL {
+  const parts: SQL[] = [];
+  if (issue.dtcCodes.length > 0) {
+    parts.push(sql`exists (select 1 from repair_line_codes rc where rc.repair_line_id = l.id
+      and rc.dtc in (${sql.join(
+        issue.dtcCodes.map((d) => sql`${d}`),
+        sql`, `,
+      )}))`);
+  }
+  if (issue.component) {
+    parts.push(
+      sql`l.component_id = (select id from components where slug = ${issue.component.slug})`,
+    );
+  }
+  return parts.length ? sql`(${sql.join(parts, sql` or `)})` : sql`0`;
+}
+
+export type EvidenceCell = {
+  make: string;
+  model: string;
+  generation: string;
+  faultKey: string;
+  band: number;
+  bandFromMi: number;
+  bandToMi: number;
+  events: number;
+  exposureMi: number;
+  vehicles: number;
+  rate: number | null;
+  rateLower: number | null;
+  rateUpper: number | null;
+  ratio: number | null;
+  ratioLower: number | null;
+  ratioUpper: number | null;
+  isSignal: boolean;
+  hasTooLittleData: boolean;
+};
+
+/**
+ * The live evidence of a known issue from the data as it is now: the computed cells it covers,
+ * the vehicles it has affected, the vehicles at risk (same cohorts, within one band below the
+ * range or inside it, not yet affected), and how often its fix held (comebacks within the
+ * organisation's window, Wilson interval).
+ */
+export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: IssueScope) {
+  assertCan(scope, "known-issues:read");
+  const org = scope.organisationId;
+  const [settings] = await db.all<{
+    band_width: number;
+    distance_unit: "mi" | "km";
+    comeback_days: number;
+    comeback_distance: number;
+    confidence_level: number;
+  }>(sql`select band_width, distance_unit, comeback_days, comeback_distance, confidence_level
+           from organisations where id = ${org}`);
+  if (!settings) throw new Error("getKnownIssueEvidence: organisation missing");
+  const unit = settings.distance_unit;
+  const bandWidthMi = unitToMiles(settings.band_width, unit);
+  const faultKeys = [
+    ...issue.dtcCodes.map((d) => `dtc:${d}`),
+    ...(issue.component ? [`component:${issue.component.slug}`] : []),
+  ];
+
+  // Cells: cohort labels of the issue's cohorts as the analysis names them.
+  const cohortCells =
+    issue.cohorts.length === 0 || faultKeys.length === 0
+      ? []
+      : await db.all<Record<string, unknown>>(sql`
+    select c.make, c.model, c.cohort_label, c.fault_key, c.band_index, c.band_from_mi, c.band_to_mi,
+           c.events, c.exposure_mi, c.vehicles_at_risk, c.rate_per_10k, c.rate_lower, c.rate_upper,
+           c.rate_ratio, c.ratio_lower, c.ratio_upper, c.is_signal, c.has_too_little_data
+      from cell_stats c
+     where c.organisation_id = ${org}
+       and c.fault_key in (${sql.join(
+         faultKeys.map((k) => sql`${k}`),
+         sql`, `,
+       )})
+       and (${sql.join(
+         issue.cohorts.map((k) =>
+           k.generation === null
+             ? sql`(c.make = ${k.make} and c.model = ${k.model})`
+             : sql`(c.make = ${k.make} and c.model = ${k.model} and c.cohort_label = ${k.generation})`,
+         ),
+         sql` or `,
+       )})
+       ${issue.mileageToMi !== null ? sql`and c.band_from_mi < ${issue.mileageToMi}` : sql``}
+       ${issue.mileageFromMi !== null ? sql`and c.band_to_mi > ${issue.mileageFromMi}` : sql``}
+     order by c.make, c.model, c.cohort_label, c.fault_key, c.band_index`);
+  const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+  const cells: EvidenceCell[] = cohortCells.map((r) => ({
+    make: String(r.make),
+    model: String(r.model),
+    generation: String(r.cohort_label),
+    faultKey: String(r.fault_key),
+    band: Number(r.band_index),
+    bandFromMi: Number(r.band_from_mi),
+    bandToMi: Number(r.band_to_mi),
+    events: Number(r.events),
+    exposureMi: Number(r.exposure_mi),
+    vehicles: Number(r.vehicles_at_risk),
+    rate: num(r.rate_per_10k),
+    rateLower: num(r.rate_lower),
+    rateUpper: num(r.rate_upper),
+    ratio: num(r.rate_ratio),
+    ratioLower: num(r.ratio_lower),
+    ratioUpper: num(r.ratio_upper),
+    isSignal: Boolean(r.is_signal),
+    hasTooLittleData: Boolean(r.has_too_little_data),
+  }));
+
+  // Every repair of the fault in the cohorts (any mileage): for comebacks; within the range: affected.
+  const lines = await db.all<{
+    id: number;
+    vehicle_id: number;
+    opened_on: string;
+    odometer_mi: number | null;
+  }>(sql`
+    select l.id, l.vehicle_id, l.opened_on, l.odometer_mi
+      from repair_lines l join vehicles v on v.id = l.vehicle_id
+     where l.organisation_id = ${org} and ${cohortSql(issue)} and ${faultSql(issue)}`);
+  const inRange = (mi: number | null) =>
+    (issue.mileageFromMi === null || (mi !== null && mi >= issue.mileageFromMi)) &&
+    (issue.mileageToMi === null || (mi !== null && mi < issue.mileageToMi));
+  const affectedIds = new Set(
+    lines.filter((l) => inRange(num(l.odometer_mi))).map((l) => Number(l.vehicle_id)),
+  );
+  const visits = lines.map((l) => ({
+    id: Number(l.id),
+    vehicleId: Number(l.vehicle_id),
+    openedOn: String(l.opened_on),
+    odometerMi: num(l.odometer_mi),
+  }));
+  const comebacks = findComebacks(visits, {
+    days: settings.comeback_days,
+    miles: unitToMiles(settings.comeback_distance, unit),
+  });
+  // Fixes = visits (one per vehicle per day); a fix held unless a comeback followed it.
+  const fixes = new Set(visits.map((v) => `${v.vehicleId}|${v.openedOn}`)).size;
+  const comebackRate: (ProportionInterval & { comebacks: number; fixes: number }) | null =
+    fixes > 0
+      ? {
+          ...wilsonInterval(comebacks.length, fixes, Number(settings.confidence_level)),
+          comebacks: comebacks.length,
+          fixes,
+        }
+      : null;
+
+  const cohortVehicles = await db.all<{
+    id: number;
+    unit_number: string | null;
+    vin: string | null;
+    make: string;
+    model: string;
+    generation: string | null;
+    last_odometer_mi: number | null;
+  }>(sql`
+    select v.id, v.unit_number, v.vin, v.make, v.model, g.label as generation, v.last_odometer_mi
+      from vehicles v left join generations g on g.id = v.generation_id
+     where v.organisation_id = ${org} and ${cohortSql(issue)}`);
+  const vehicleOf = (v: (typeof cohortVehicles)[number]) => ({
+    id: Number(v.id),
+    unitNumber: v.unit_number,
+    vin: v.vin,
+    cohort: `${v.make} ${v.model} ${v.generation ?? ""}`.trim(),
+    lastOdometerMi: num(v.last_odometer_mi),
+  });
+  const affected = cohortVehicles.filter((v) => affectedIds.has(Number(v.id))).map(vehicleOf);
+  const from = issue.mileageFromMi ?? 0;
+  const to = issue.mileageToMi ?? Number.POSITIVE_INFINITY;
+  const atRisk = cohortVehicles
+    .filter((v) => !affectedIds.has(Number(v.id)))
+    .map(vehicleOf)
+    .filter(
+      (v) =>
+        v.lastOdometerMi !== null &&
+        v.lastOdometerMi >= from - bandWidthMi &&
+        v.lastOdometerMi < to,
+    )
+    .map((v) => ({
+      ...v,
+      /** Miles until the range starts (0 when inside it). */
+      toRangeMi: Math.max(0, from - (v.lastOdometerMi ?? 0)),
+    }))
+    .sort((a, b) => a.toRangeMi - b.toRangeMi || (b.lastOdometerMi ?? 0) - (a.lastOdometerMi ?? 0));
+  const unknownOdometer = cohortVehicles.filter(
+    (v) => !affectedIds.has(Number(v.id)) && v.last_odometer_mi === null,
+  ).length;
+
+  return {
+    cells,
+    signals: cells.filter((c) => c.isSignal).length,
+    repairs: lines.filter((l) => inRange(num(l.odometer_mi))).length,
+    affected,
+    atRisk,
+    cohortVehicles: cohortVehicles.length,
+    unknownOdometer,
+    comebackRate,
+    comebackWindow: { days: settings.comeback_days, distance: settings.comeback_distance, unit },
+    confidenceLevel: Number(settings.confidence_level),
+    bandWidthMi,
+  };
+}
+export type KnownIssueEvidence = Awaited<ReturnType<typeof getKnownIssueEvidence>>;
