@@ -151,7 +151,11 @@ function parseParts(raw: string | undefined) {
  */
 export const KnownIssueForm = z
   .object({
-    title: text(160).min(3, "Give the known issue a title (at least 3 characters)."),
+    title: z
+      .string({ error: "Give the known issue a title." })
+      .trim()
+      .min(3, "Give the known issue a title (at least 3 characters).")
+      .max(160, "At most 160 characters."),
     summary: text(4000).optional(),
     mileageFrom: optionalNumber(2_000_000).optional(),
     mileageTo: optionalNumber(2_000_000).optional(),
@@ -255,12 +259,20 @@ export type KnownIssueInput = z.output<typeof KnownIssueForm>;
 export const StateChangeForm = z.object({
   knownIssueId: z.coerce.number().int().positive(),
   toState: z.enum(KNOWN_ISSUE_STATES),
-  reason: text(2000).min(3, "Say why (at least 3 characters)."),
+  reason: z
+    .string({ error: "Say why (at least 3 characters)." })
+    .trim()
+    .min(3, "Say why (at least 3 characters).")
+    .max(2000, "At most 2000 characters."),
 });
 
 export const CommentForm = z.object({
   knownIssueId: z.coerce.number().int().positive(),
-  body: text(4000).min(1, "Write a comment."),
+  body: z
+    .string({ error: "Write a comment." })
+    .trim()
+    .min(1, "Write a comment.")
+    .max(4000, "At most 4000 characters."),
 });
 
 export const FindingForm = z

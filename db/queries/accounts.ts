@@ -76,3 +76,9 @@ export async function listMembershipsOfUser(
     ),
   };
 }
+
+/** A user's display name (for messages about what they did). */
+export async function findUserName(db: DbOrTx, userId: number): Promise<string | null> {
+  const [u] = await db.select({ name: users.name }).from(users).where(eq(users.id, userId));
+  return u?.name ?? null;
+}

@@ -73,7 +73,6 @@ export type EvidenceCell = {
  */
 export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: IssueScope) {
   assertCan(scope, "known-issues:read");
-  const org = scope.organisationId;
   const [settings] = await db.all<{
     band_width: number;
     distance_unit: "mi" | "km";
@@ -81,7 +80,7 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
     comeback_distance: number;
     confidence_level: number;
   }>(sql`select band_width, distance_unit, comeback_days, comeback_distance, confidence_level
-           from organisations where id = ${org}`);
+           from organisations where id = ${scope.organisationId}`);
   if (!settings) throw new Error("getKnownIssueEvidence: organisation missing");
   const unit = settings.distance_unit;
   const bandWidthMi = unitToMiles(settings.band_width, unit);
@@ -99,7 +98,7 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
            c.events, c.exposure_mi, c.vehicles_at_risk, c.rate_per_10k, c.rate_lower, c.rate_upper,
            c.rate_ratio, c.ratio_lower, c.ratio_upper, c.is_signal, c.has_too_little_data
       from cell_stats c
-     where c.organisation_id = ${org}
+     where c.organisation_id = ${scope.organisationId}
        and c.fault_key in (${sql.join(
          faultKeys.map((k) => sql`${k}`),
          sql`, `,
@@ -146,7 +145,7 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
   }>(sql`
     select l.id, l.vehicle_id, l.opened_on, l.odometer_mi
       from repair_lines l join vehicles v on v.id = l.vehicle_id
-     where l.organisation_id = ${org} and ${cohortSql(issue)} and ${faultSql(issue)}`);
+     where l.organisation_id = ${scope.organisationId} and ${cohortSql(issue)} and ${faultSql(issue)}`);
   const inRange = (mi: number | null) =>
     (issue.mileageFromMi === null || (mi !== null && mi >= issue.mileageFromMi)) &&
     (issue.mileageToMi === null || (mi !== null && mi < issue.mileageToMi));
@@ -185,7 +184,7 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
   }>(sql`
     select v.id, v.unit_number, v.vin, v.make, v.model, g.label as generation, v.last_odometer_mi
       from vehicles v left join generations g on g.id = v.generation_id
-     where v.organisation_id = ${org} and ${cohortSql(issue)}`);
+     where v.organisation_id = ${scope.organisationId} and ${cohortSql(issue)}`);
   const vehicleOf = (v: (typeof cohortVehicles)[number]) => ({
     id: Number(v.id),
     unitNumber: v.unit_number,

@@ -17,13 +17,16 @@ import {
   memberships,
   organisations,
   parts,
+  signals,
   users,
   vehicles,
   type KnownIssueState,
 } from "@/db/schema";
 import { CAUTIONS, canChangeState, STATE_LABELS, type KnownIssueInput } from "@/lib/known-issues";
 import { unitToMiles } from "@/lib/units";
+import { findUserName } from "./accounts";
 import { recordAudit } from "./audit";
+import { componentIdOfSlug as componentIdOf } from "./reference";
 import { queueEmail } from "./email";
 import { assertCan, ConflictError, inOrg, NotFoundError, orgWhere, type OrgScope } from "./scope";
 
@@ -308,6 +311,31 @@ export async function getCohortChoices(db: Db, scope: OrgScope) {
   return { generations: gens, models, components: componentList };
 }
 
+/** The signal (if any) of a computed cell, to link a known issue started from it. */
+export async function findSignalOfCell(
+  db: Db,
+  scope: OrgScope,
+  key: { make: string; model: string; generation: string; band: number; faultKey: string },
+) {
+  assertCan(scope, "known-issues:read");
+  const [row] = await db
+    .select({ id: signals.id })
+    .from(signals)
+    .where(
+      orgWhere(
+        signals,
+        scope,
+        eq(signals.make, key.make),
+        eq(signals.model, key.model),
+        eq(signals.cohortLabel, key.generation),
+        eq(signals.bandIndex, key.band),
+        eq(signals.faultKey, key.faultKey),
+      ),
+    )
+    .limit(1);
+  return row ?? null;
+}
+
 /** Writes the parts of a known issue that live in child tables (replacing what was there). */
 async function writeChildren(tx: DbOrTx, scope: OrgScope, id: number, input: KnownIssueInput) {
   for (const table of [
@@ -379,17 +407,6 @@ async function writeChildren(tx: DbOrTx, scope: OrgScope, id: number, input: Kno
   }
 }
 
-async function componentIdOf(tx: DbOrTx, slug: string | null): Promise<number | null> {
-  if (!slug) return null;
-  const [c] = await tx
-    .select({ id: components.id })
-    .from(components)
-    .where(eq(components.slug, slug))
-    .limit(1);
-  if (!c) throw new NotFoundError(`Unknown component "${slug}".`);
-  return c.id;
-}
-
 /** Columns of the known_issues row from the form (mileage in the organisation's unit). */
 function issueColumns(input: KnownIssueInput, unit: "mi" | "km", componentId: number | null) {
   return {
@@ -433,6 +450,13 @@ export async function createKnownIssue(db: Db, scope: OrgScope, input: KnownIssu
       .returning({ id: knownIssues.id });
     if (!created) throw new Error("createKnownIssue: insert returned no row");
     await writeChildren(tx, scope, created.id, input);
+    if (input.signalId !== null) {
+      // The signal it was started from now points at the known issue.
+      await tx
+        .update(signals)
+        .set({ knownIssueId: created.id, state: "promoted" })
+        .where(orgWhere(signals, scope, eq(signals.id, input.signalId)));
+    }
     await tx.insert(knownIssueStates).values(
       inOrg(scope, {
         knownIssueId: created.id,
@@ -553,9 +577,7 @@ export async function changeKnownIssueState(
         userId: scope.userId,
       }),
     );
-    const [actor] = scope.userId
-      ? await tx.select({ name: users.name }).from(users).where(eq(users.id, scope.userId))
-      : [];
+    const actor = scope.userId ? await findUserName(tx, scope.userId) : null;
     const from = STATE_LABELS[issue.state].label;
     const to = STATE_LABELS[input.toState].label;
     const link = `${baseUrl()}/known-issues/${issue.id}`;
@@ -564,8 +586,8 @@ export async function changeKnownIssueState(
         organisationId: scope.organisationId,
         to: to_,
         subject: `Known issue ${to.toLowerCase()}: ${issue.title}`,
-        text: `${actor?.name ?? "Someone"} moved "${issue.title}" from ${from} to ${to}.\n\nWhy: ${input.reason}\n\n${link}\n\nYou get this because you watch this known issue in Recurra.`,
-        html: `<p>${escapeHtml(actor?.name ?? "Someone")} moved <strong>${escapeHtml(issue.title)}</strong> from ${from} to <strong>${to}</strong>.</p><p>Why: ${escapeHtml(input.reason)}</p><p><a href="${link}">Open the known issue</a></p><p style="color:#666">You get this because you watch this known issue in Recurra.</p>`,
+        text: `${actor ?? "Someone"} moved "${issue.title}" from ${from} to ${to}.\n\nWhy: ${input.reason}\n\n${link}\n\nYou get this because you watch this known issue in Recurra.`,
+        html: `<p>${escapeHtml(actor ?? "Someone")} moved <strong>${escapeHtml(issue.title)}</strong> from ${from} to <strong>${to}</strong>.</p><p>Why: ${escapeHtml(input.reason)}</p><p><a href="${link}">Open the known issue</a></p><p style="color:#666">You get this because you watch this known issue in Recurra.</p>`,
       });
     }
     await recordAudit(tx, scope, {

@@ -103,7 +103,10 @@ test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-d
       .locator("svg")
       .first(),
   ).toBeVisible();
-  await expect(page.getByRole("button", { name: /Start a known issue/ })).toBeDisabled();
+  await expect(page.getByRole("link", { name: "Start a known issue from this" })).toHaveAttribute(
+    "href",
+    /^\/known-issues\/new\?make=Aurel&model=Merlin/,
+  );
   const ordersCsv = await page.request.get(
     (await page.getByRole("link", { name: "Download CSV" }).getAttribute("href")) ?? "",
   );

@@ -13,7 +13,7 @@ export type DemoRole = keyof typeof ACCOUNTS;
 
 /** Console errors that a test provokes on purpose (a 403 or 404 page) are not failures. */
 const EXPECTED_CONSOLE =
-  /Failed to load resource: the server responded with a status of (401|403|404|409|413)/;
+  /Failed to load resource: the server responded with a status of (401|403|404|409|413|415)/;
 
 export const test = base.extend<{ consoleErrors: string[] }>({
   baseURL: async ({}, use) => use(process.env.E2E_BASE_URL),

@@ -14,6 +14,7 @@ import {
   formatSig,
   ratePerTenThousand,
 } from "@/lib/format";
+import { can } from "@/lib/auth/roles";
 import { milesToUnit } from "@/lib/units";
 import { loadCell } from "./load-cell";
 
@@ -96,14 +97,18 @@ export default async function CellPage({
             <dt className="text-ink-soft">Vehicles affected</dt>
             <dd className="tabular-nums">{detail.vehicles.length}</dd>
           </dl>
-          <button
-            type="button"
-            disabled
-            className="mt-4 w-full cursor-not-allowed rounded-md border border-dashed border-line-strong px-3 py-2 text-sm text-ink-soft"
-            title="The known-issue library is not built yet"
-          >
-            Start a known issue from this (coming with the known-issue library)
-          </button>
+          {can(auth.role, "known-issues:manage") ? (
+            <Link
+              href={`/known-issues/new?${keyQuery}`}
+              className={`${buttonClass.primary} mt-4 w-full`}
+            >
+              Start a known issue from this
+            </Link>
+          ) : (
+            <p className="mt-4 text-sm text-ink-soft">
+              A manager can start a known issue from this cell.
+            </p>
+          )}
         </Panel>
       </div>
       <Panel title={`Recurrence over mileage: ${cohort}, ${detail.faultLabel}`} className="mt-4">

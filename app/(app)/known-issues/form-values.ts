@@ -1,0 +1,160 @@
+import "server-only";
+import type { Db } from "@/db";
+import {
+  findSignalOfCell,
+  getCohortChoices,
+  type KnownIssueDetail,
+} from "@/db/queries/known-issues";
+import { faultKeyOf, getCellDetail, type CellKey } from "@/db/queries/patterns";
+import { componentOfDtc } from "@/db/queries/reference";
+import type { OrgScope } from "@/db/queries/scope";
+import { SYMPTOMS } from "@/db/schema/records";
+import type {
+  KnownIssueFormChoices,
+  KnownIssueFormValues,
+} from "@/components/known-issues/known-issue-form";
+import { formatBand, formatInterval, formatSig, ratePerTenThousand } from "@/lib/format";
+import { CAUTIONS, cautionsForComponent, SYMPTOM_LABELS } from "@/lib/known-issues";
+import { milesToUnit } from "@/lib/units";
+import { CAUTION_KINDS } from "@/db/schema/known-issues";
+
+const EMPTY: KnownIssueFormValues = {
+  title: "",
+  summary: "",
+  mileageFrom: "",
+  mileageTo: "",
+  dtcCodes: "",
+  componentSlug: "",
+  checks: "",
+  fixDescription: "",
+  laborOperation: "",
+  typicalHours: "",
+  parts: "",
+  cautionText: "",
+  references: "",
+  checked: [],
+};
+
+const whole = (mi: number | null, unit: "mi" | "km") =>
+  mi === null ? "" : String(Math.round(milesToUnit(mi, unit)));
+
+/** The choices of the known-issue form: the organisation's cohorts, symptoms, cautions, components. */
+export async function formChoices(db: Db, scope: OrgScope, unit: "mi" | "km") {
+  const c = await getCohortChoices(db, scope);
+  const models = new Map<string, KnownIssueFormChoices["cohorts"][number]>();
+  const group = (make: string, model: string) => {
+    const key = `${make}|${model}`;
+    let g = models.get(key);
+    if (!g) {
+      g = {
+        make,
+        model,
+        options: [{ key: `cohort:${make}|${model}|*`, label: "all generations" }],
+      };
+      models.set(key, g);
+    }
+    return g;
+  };
+  for (const m of c.models) group(m.make, m.model);
+  for (const g of c.generations) {
+    group(g.make, g.model).options.push({
+      key: `cohort:${g.make}|${g.model}|${g.id}`,
+      label: `${g.label} (${g.yearFrom}–${g.yearTo})`,
+    });
+  }
+  const systems = new Map<string, { slug: string; name: string }[]>();
+  for (const k of c.components) {
+    const list = systems.get(k.system) ?? [];
+    list.push({ slug: k.slug, name: k.name });
+    systems.set(k.system, list);
+  }
+  const choices: KnownIssueFormChoices = {
+    unit,
+    cohorts: [...models.values()].sort((a, b) =>
+      `${a.make} ${a.model}`.localeCompare(`${b.make} ${b.model}`),
+    ),
+    symptoms: SYMPTOMS.map((s) => ({ slug: s, label: SYMPTOM_LABELS[s] })),
+    cautions: CAUTION_KINDS.filter((k) => k !== "other").map((k) => ({ kind: k, ...CAUTIONS[k] })),
+    components: [...systems.entries()].map(([system, items]) => ({ system, items })),
+  };
+  return { choices, generations: c.generations };
+}
+
+/** The form prefilled with an existing known issue (edit). */
+export function valuesFromIssue(d: KnownIssueDetail, unit: "mi" | "km"): KnownIssueFormValues {
+  return {
+    knownIssueId: d.id,
+    title: d.title,
+    summary: d.summary ?? "",
+    mileageFrom: whole(d.mileageFromMi, unit),
+    mileageTo: whole(d.mileageToMi, unit),
+    dtcCodes: d.dtcCodes.join(" "),
+    componentSlug: d.component?.slug ?? "",
+    checks: d.checks.join("\n"),
+    fixDescription: d.fixDescription ?? "",
+    laborOperation: d.laborOperation ?? "",
+    typicalHours: d.typicalHours === null ? "" : String(d.typicalHours),
+    parts: d.parts
+      .map((p) => `${p.partNumber}${p.quantity > 1 ? ` x${p.quantity}` : ""}`)
+      .join("\n"),
+    cautionText: d.cautions.find((c) => c.kind === "other")?.text ?? "",
+    references: d.references ?? "",
+    checked: [
+      ...d.cohorts.map((c) => `cohort:${c.make}|${c.model}|${c.generationId ?? "*"}`),
+      ...d.symptoms.map((s) => `symptom:${s}`),
+      ...d.cautions.map((c) => `caution:${c.kind}`),
+    ],
+  };
+}
+
+/**
+ * The form prefilled from a computed cell (the drill-down's "start a known issue"): its cohort,
+ * band, fault, the cautions of the fault's system, and the evidence in words.
+ */
+export async function valuesFromCell(
+  db: Db,
+  scope: OrgScope,
+  key: CellKey,
+  unit: "mi" | "km",
+  generations: { id: number; make: string; model: string; label: string }[],
+): Promise<KnownIssueFormValues | null> {
+  const detail = await getCellDetail(db, scope, key);
+  if (!detail) return null;
+  const c = detail.cell;
+  const fk = faultKeyOf(key.fault);
+  let componentSlug = fk.startsWith("component:") ? fk.slice(10) : "";
+  const dtc = fk.startsWith("dtc:") ? fk.slice(4) : "";
+  // The component a generic code usually points at, for the cautions (reference data).
+  if (dtc) componentSlug = (await componentOfDtc(db, dtc)) ?? "";
+  const gen = generations.find(
+    (g) => g.make === key.make && g.model === key.model && g.label === key.generation,
+  );
+  const signal = await findSignalOfCell(db, scope, { ...key, faultKey: fk });
+  const band = formatBand(c.bandFrom, c.bandTo, unit);
+  const evidence =
+    `Started from the cell ${key.make} ${key.model} ${key.generation}, ${band}, ${detail.faultLabel}: ` +
+    `${c.events} repairs in ${formatSig(milesToUnit(c.exposureMi, unit))} ${unit} of driving by ${c.vehicles} vehicles, ` +
+    `${formatSig(ratePerTenThousand(c.rate, unit))} per 10,000 ${unit} (95% ${formatInterval(ratePerTenThousand(c.rateLower, unit), ratePerTenThousand(c.rateUpper, unit))})` +
+    (c.ratio !== null
+      ? `, ${formatSig(c.ratio)}× the rest of the fleet (95% ${formatInterval(c.ratioLower, c.ratioUpper)}).`
+      : ".");
+  return {
+    ...EMPTY,
+    title: `${detail.faultLabel} on ${key.make} ${key.model} ${key.generation}, ${band}`.slice(
+      0,
+      160,
+    ),
+    summary: evidence,
+    mileageFrom: whole(c.bandFrom, unit),
+    mileageTo: whole(c.bandTo, unit),
+    dtcCodes: dtc,
+    componentSlug: fk.startsWith("component:") ? fk.slice(10) : "",
+    signalId: signal?.id,
+    checked: [
+      `cohort:${key.make}|${key.model}|${gen?.id ?? "*"}`,
+      ...cautionsForComponent(componentSlug).map((k) => `caution:${k}`),
+    ],
+  };
+}
+
+export const EMPTY_VALUES = EMPTY;
