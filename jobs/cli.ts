@@ -7,6 +7,8 @@ import { createReadStream } from "node:fs";
 import { readFile } from "node:fs/promises";
 import { basename } from "node:path";
 import { Command, Option } from "commander";
+import { getStockingPlan } from "@/db/queries/stocking";
+import { StockingQuery } from "@/lib/stocking-request";
 import { z } from "zod";
 import { getDatabase } from "@/db";
 import { migrateDatabase } from "@/db/migrate";
@@ -361,6 +363,63 @@ export function buildProgram(): Command {
           ].join("\n"),
         };
       }),
+    );
+
+  program
+    .command("stock")
+    .description("parts stocking plan of the customer base")
+    .requiredOption("--org <slug>", "organisation slug")
+    .option(
+      "--service-level <p>",
+      "target share of periods with no shortage (0.8, 0.9, 0.95, 0.98, 0.99)",
+      "0.95",
+    )
+    .option("--lead-days <n>", "lead time for every part (default: each part's own, else 7)")
+    .option("--review-days <n>", "days between orders", "14")
+    .option("--months <n>", "customer base: vehicles seen in the last N months", "12")
+    .option("--cautious", "use the upper confidence bound of each failure rate")
+    .action(
+      action(
+        async (opts: {
+          org: string;
+          serviceLevel: string;
+          leadDays?: string;
+          reviewDays: string;
+          months: string;
+          cautious?: boolean;
+        }) => {
+          const q = StockingQuery.safeParse({
+            serviceLevel: opts.serviceLevel,
+            leadDays: opts.leadDays,
+            reviewDays: opts.reviewDays,
+            months: opts.months,
+            cautious: opts.cautious ? "1" : "0",
+          });
+          if (!q.success) throw new Error(q.error.issues[0]?.message ?? "Invalid options.");
+          const { db, scope } = await operatorScope(opts.org);
+          const plan = await getStockingPlan(db, scope, q.data);
+          const data = plan.parts.map((p) => ({
+            partNumber: p.partNumber,
+            component: p.component,
+            expectedDemand: Number(p.expectedDemand.toFixed(4)),
+            stockLevel: p.stockLevel,
+            onHand: p.onHand,
+            reorder: p.reorder,
+          }));
+          return {
+            data,
+            text:
+              `${plan.vehicles} vehicles seen in the last ${q.data.months} months (as of ${plan.asOf}); service level ${q.data.serviceLevel}\n` +
+              data
+                .filter((p) => p.reorder > 0)
+                .map(
+                  (p) =>
+                    `${p.partNumber.padEnd(12)} ${(p.component ?? "").padEnd(44)} demand ${p.expectedDemand.toFixed(2).padStart(7)}  level ${String(p.stockLevel).padStart(4)}  on hand ${String(p.onHand).padStart(4)}  reorder ${String(p.reorder).padStart(4)}`,
+                )
+                .join("\n"),
+          };
+        },
+      ),
     );
 
   const demo = program.command("demo").description("invented demo scenario");

@@ -133,7 +133,26 @@ describe("command line", () => {
 
     const text = await recurra("org", "list");
     expect(text.stdout).toMatch(/harbour-vans\s+fleet\s+0 vehicles\s+Harbour Vans/);
-  });
+  }, 90_000);
+
+  test("stock prints the parts plan as one JSON array, and refuses a bad service level", async () => {
+    expect((await recurra("demo", "load")).code).toBe(0);
+    const r = await recurra("stock", "--org", "northgate", "--service-level", "0.9", "--json");
+    expect(r.code).toBe(0);
+    const lines = r.stdout.trim().split("\n");
+    expect(lines).toHaveLength(1);
+    const parts = JSON.parse(lines[0] ?? "") as Record<string, number | string | null>[];
+    expect(parts.length).toBeGreaterThan(100);
+    for (const p of parts) {
+      expect(Object.keys(p).sort()).toEqual(
+        ["component", "expectedDemand", "onHand", "partNumber", "reorder", "stockLevel"].sort(),
+      );
+      expect(p.reorder).toBe(Math.max(0, Number(p.stockLevel) - Number(p.onHand)));
+    }
+    const bad = await recurra("stock", "--org", "northgate", "--service-level", "0.5", "--json");
+    expect(bad.code).toBe(1);
+    expect(json(bad.stdout).error).toMatch(/Choose 80%/);
+  }, 120_000);
 
   test("an unknown role is refused by the argument parser", async () => {
     const r = await recurra(

@@ -1,0 +1,45 @@
+import { expect, screenshot, signIn, test } from "./support";
+
+test("the shop owner plans stock and exports the purchase list", async ({ page }) => {
+  await signIn(page, "shopManager");
+  await page.goto("/stocking");
+  const table = page.getByRole("table", { name: "Stocking plan" });
+  await expect(table.getByRole("row").nth(1)).toBeVisible();
+  const reorderAt95 = Number(await page.getByTestId("stock-parts-to-reorder").textContent());
+  expect(reorderAt95).toBeGreaterThan(0);
+  await screenshot(page, "stocking");
+
+  // A higher service level and the cautious rates never ask for fewer parts.
+  const form = page.getByRole("form", { name: "Plan settings" });
+  await form.getByLabel("Service level").selectOption("0.99");
+  await form.getByLabel(/Cautious/).check();
+  await form.getByRole("button", { name: "Plan" }).click();
+  await expect(page).toHaveURL(/serviceLevel=0\.99.*cautious=1/);
+  const reorderAt99 = Number(await page.getByTestId("stock-parts-to-reorder").textContent());
+  expect(reorderAt99).toBeGreaterThanOrEqual(reorderAt95);
+
+  const href = await page
+    .getByRole("link", { name: "Download purchase list (CSV)" })
+    .getAttribute("href");
+  const csv = await page.request.get(href ?? "");
+  expect(csv.headers()["content-type"]).toContain("text/csv");
+  const lines = (await csv.text())
+    .replace(/^\uFEFF/, "")
+    .trim()
+    .split("\r\n");
+  expect(lines[0]).toBe(
+    "part_number,description,component,abc,expected_demand,period_days,stock_level,on_hand,reorder,unit_cost,reorder_value,expected_shortfall_on_hand",
+  );
+  expect(lines.length - 1).toBe(reorderAt99);
+
+  // A bad setting is answered with a clear message, never a crash.
+  const bad = await page.request.get("/api/stocking?serviceLevel=0.5");
+  expect(bad.status()).toBe(400);
+  expect((await bad.json()).error).toMatch(/Choose 80%/);
+});
+
+test("a technician cannot open the stocking plan", async ({ page }) => {
+  await signIn(page, "technician");
+  expect((await page.goto("/stocking"))?.status()).toBe(403);
+  expect((await page.request.get("/api/stocking")).status()).toBe(403);
+});

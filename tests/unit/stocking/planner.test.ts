@@ -1,0 +1,118 @@
+import { describe, expect, test } from "vitest";
+import { planStock, withAbcClasses, type PlannerInput } from "@/lib/stocking";
+
+const COHORT = "Aurel|Kestrel|K2";
+
+/** One cohort, one component ("brakes/front-pads"), one part per repair, 25,000 mi bands. */
+function input(over: Partial<PlannerInput> = {}): PlannerInput {
+  return {
+    vehicles: [{ id: 1, cohortKey: COHORT, odometerMi: 10_000, milesPerDay: 50 }],
+    rates: new Map([
+      [`${COHORT}|0|brakes/front-pads`, { perMile: 0.001, upperPerMile: 0.002 }],
+      [`${COHORT}|1|brakes/front-pads`, { perMile: 0.004, upperPerMile: 0.006 }],
+    ]),
+    componentsByCohort: new Map([[COHORT, ["brakes/front-pads"]]]),
+    partUse: new Map([["*|brakes/front-pads", [{ partNumber: "K2-4805", perRepair: 1 }]]]),
+    parts: [
+      {
+        partNumber: "K2-4805",
+        description: "Front pads",
+        component: "Brakes → Front pads",
+        onHand: 3,
+        unitCostCents: 4_000,
+        leadTimeDays: 36,
+      },
+    ],
+    bandWidthMi: 25_000,
+    serviceLevel: 0.95,
+    reviewDays: 14,
+    defaultLeadDays: 7,
+    cautious: false,
+    ...over,
+  };
+}
+
+describe("planStock", () => {
+  test("demand = rate × miles per day × (lead + review) × parts per repair; level from statistics.md §8", () => {
+    // 0.001 repairs/mi × 50 mi/day × (36 + 14) days × 1 = 2.5; λ = 2.5 at 95% → 5 (statistics.md §8).
+    const [plan] = planStock(input());
+    expect(plan?.expectedDemand).toBeCloseTo(2.5, 12);
+    expect(plan?.periodDays).toBe(50);
+    expect(plan?.stockLevel).toBe(5);
+    expect(plan?.reorder).toBe(2);
+    expect(plan?.annualDemand).toBeCloseTo(0.05 * 365, 12);
+    expect(plan?.annualValueCents).toBeCloseTo(0.05 * 365 * 4_000, 8);
+  });
+
+  test("expected shortfall matches the published order-up-to table (mean 1.25, stock 2 → 0.18114)", () => {
+    // 0.001 × 25 mi/day × 50 days = 1.25; the table in statistics.md §8.
+    const [plan] = planStock(
+      input({
+        vehicles: [{ id: 1, cohortKey: COHORT, odometerMi: 10_000, milesPerDay: 25 }],
+        parts: [{ ...input().parts[0]!, onHand: 2 }],
+      }),
+    );
+    expect(plan?.expectedDemand).toBeCloseTo(1.25, 12);
+    expect(plan?.shortfallOnHand).toBeCloseTo(0.18114, 5);
+  });
+
+  test("the cautious option uses each rate's upper bound", () => {
+    const [plan] = planStock(input({ cautious: true }));
+    expect(plan?.expectedDemand).toBeCloseTo(0.002 * 50 * 50, 12);
+  });
+
+  test("a vehicle about to cross a band is planned with the band it will be in mid-period", () => {
+    // 24,000 mi + 50 mi/day × 57 days / 2 = 25,425 mi: band 1 (rate 0.004).
+    const [plan] = planStock(
+      input({ vehicles: [{ id: 1, cohortKey: COHORT, odometerMi: 24_000, milesPerDay: 50 }] }),
+    );
+    expect(plan?.expectedDemand).toBeCloseTo(0.004 * 50 * 50, 12);
+  });
+
+  test("a per-cohort part mix wins over the all-cohort one; lead-time override; unknown parts", () => {
+    const plans = planStock(
+      input({
+        overrideLeadDays: 6,
+        partUse: new Map([
+          [`${COHORT}|brakes/front-pads`, [{ partNumber: "K2-9999", perRepair: 2 }]],
+          ["*|brakes/front-pads", [{ partNumber: "K2-4805", perRepair: 1 }]],
+        ]),
+      }),
+    );
+    const unknown = plans.find((p) => p.partNumber === "K2-9999");
+    expect(unknown?.isStocked).toBe(false);
+    expect(unknown?.onHand).toBe(0);
+    expect(unknown?.expectedDemand).toBeCloseTo(0.001 * 50 * 20 * 2, 12);
+    // The shelf part nobody needs now plans a stock of 0 and no reorder.
+    const shelf = plans.find((p) => p.partNumber === "K2-4805");
+    expect(shelf?.expectedDemand).toBe(0);
+    expect(shelf?.stockLevel).toBe(0);
+    expect(shelf?.reorder).toBe(0);
+  });
+
+  test("vehicles of a cohort without cells, or not driving, add no demand", () => {
+    const [plan] = planStock(
+      input({
+        vehicles: [
+          { id: 1, cohortKey: "Ostra|Wren|W2", odometerMi: 10_000, milesPerDay: 50 },
+          { id: 2, cohortKey: COHORT, odometerMi: 10_000, milesPerDay: 0 },
+        ],
+      }),
+    );
+    expect(plan?.expectedDemand).toBe(0);
+    expect(plan?.vehicles).toBe(0);
+  });
+});
+
+describe("withAbcClasses (common practice: 80% / 95% of the yearly value)", () => {
+  test("classes follow the running share of the value", () => {
+    const rows = withAbcClasses([
+      { id: "c", annualValueCents: 6 },
+      { id: "a", annualValueCents: 70 },
+      { id: "d", annualValueCents: 4 },
+      { id: "b", annualValueCents: 20 },
+      { id: "e", annualValueCents: null },
+    ]);
+    expect(rows.map((r) => `${r.id}${r.abc}`)).toEqual(["aA", "bA", "cB", "dC", "eC"]);
+  });
+});
