@@ -82,8 +82,9 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
   for (const r of rows) {
     if (!r.first_on || !r.last_on || r.first_mi === null || r.last_mi === null) continue;
     const days = (Date.parse(r.last_on) - Date.parse(r.first_on)) / 86_400_000;
-    if (days >= 30 && r.last_mi >= r.first_mi)
-      own.set(Number(r.id), (r.last_mi - r.first_mi) / days);
+    const perDay = (r.last_mi - r.first_mi) / days;
+    // A span of a month or more, and a plausible pace (an odometer typo can fake 10,000 mi/day).
+    if (days >= 30 && perDay >= 0 && perDay <= MAX_MILES_PER_DAY) own.set(Number(r.id), perDay);
   }
   const median = (xs: number[]) => {
     const s = [...xs].sort((a, b) => a - b);
