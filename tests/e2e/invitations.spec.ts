@@ -1,3 +1,4 @@
+import { execFileSync } from "node:child_process";
 import { expect, orgId, queryDb, screenshot, signIn, test } from "./support";
 
 const LINK = /https?:\/\/[^\s]+\/invite\/[A-Za-z0-9_-]{43}/;
@@ -119,4 +120,77 @@ test("an unknown or malformed invitation link gets a clear message", async ({ pa
       page.getByRole("alert").filter({ hasText: "This invitation link is not valid." }),
     ).toBeVisible();
   }
+});
+
+test("someone with an account signs in from the link and joins a second organisation", async ({
+  page,
+  browser,
+  baseURL,
+}) => {
+  const email = `driver-${Date.now()}@recurra.example`;
+  const password = "north-bay-lift-7";
+  execFileSync(
+    "npx",
+    [
+      "tsx",
+      "--conditions=react-server",
+      "jobs/cli.ts",
+      "user",
+      "add",
+      "--org",
+      "tidewater",
+      "--role",
+      "viewer",
+      "--email",
+      email,
+      "--name",
+      "Linnea Frostholm",
+      "--password",
+      password,
+    ],
+    { env: process.env, stdio: "ignore" },
+  );
+
+  await signIn(page, "admin");
+  await page.getByLabel("Organisation").selectOption({ label: "Northgate Auto Clinic (Admin)" });
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText("Northgate Auto Clinic");
+  await page.goto("/settings/members");
+  const form = page.getByRole("form", { name: "Invite a member" });
+  await form.getByLabel("E-mail").fill(email);
+  await form.getByLabel("Role").selectOption("manager");
+  await form.getByRole("button", { name: "Send invitation" }).click();
+  await expect(form.getByRole("status")).toContainText(`Invitation sent to ${email}`);
+
+  // This time the test reads the capture store directly.
+  let link = "";
+  await expect
+    .poll(
+      async () => {
+        const [row] = await queryDb<{ text_body: string }>(
+          "select text_body from captured_mail where to_addresses = ?",
+          [email],
+        );
+        link = row?.text_body.match(LINK)?.[0] ?? "";
+        return link;
+      },
+      { timeout: 30_000 },
+    )
+    .toContain(`${baseURL}/invite/`);
+
+  const context = await browser.newContext({ baseURL });
+  const invitee = await context.newPage();
+  await invitee.goto(link);
+  await expect(invitee.getByRole("heading", { level: 1 })).toHaveText("Join Northgate Auto Clinic");
+  await invitee.getByRole("link", { name: "Sign in to join" }).click();
+  await invitee.getByLabel("E-mail").fill(email);
+  await invitee.getByLabel("Password").fill(password);
+  await invitee.getByRole("button", { name: "Sign in" }).click();
+  await invitee.waitForURL((url) => url.pathname.startsWith("/invite/"));
+  await invitee.getByRole("button", { name: "Join Northgate Auto Clinic" }).click();
+  await invitee.waitForURL((url) => url.pathname === "/");
+  await expect(invitee.getByRole("heading", { level: 1 })).toHaveText("Northgate Auto Clinic");
+  await expect(invitee.getByTestId("who")).toHaveText("Linnea Frostholm · Manager");
+  // Still a viewer in the first organisation.
+  await expect(invitee.getByLabel("Organisation")).toContainText("Tidewater Parcel Co-op (Viewer)");
+  await context.close();
 });
