@@ -20,6 +20,9 @@ const mailer = startMailer({
   workerId,
   signal: controller.signal,
   log: (m) => process.stderr.write(`[recurra mail] ${m}\n`),
+}).catch((e: unknown) => {
+  // Jobs go on without mail; the outbox keeps the messages for the next start.
+  process.stderr.write(`[recurra mail] the delivery loop stopped: ${String(e)}\n`);
 });
 await startWorker({
   db,
