@@ -1,10 +1,11 @@
 import { getDatabase } from "@/db";
-import { startWorker } from "./worker";
+import { startMailer } from "./mail/mailer";
+import { defaultWorkerId, startWorker } from "./worker";
 
 const state = globalThis as unknown as { recurraWorker?: AbortController };
 
 /**
- * Starts the job worker inside this process (the web server, by default). Idempotent: a second
+ * Starts the job worker and the e-mail delivery loop inside this process (the web server, by default). Idempotent: a second
  * call in the same process does nothing. Set RECURRA_WORKER=0 to leave the jobs to separate
  * `npm run worker` processes.
  */
@@ -17,9 +18,14 @@ export function startBackgroundWorker(): void {
   process.once("SIGINT", stop);
   void (async () => {
     const { db } = await getDatabase();
+    const workerId = defaultWorkerId();
+    // Outgoing mail is swept beside the jobs, so a long import never holds it up.
+    void startMailer({ db, workerId, signal: controller.signal }).catch((e: unknown) =>
+      console.error("[recurra mail] the delivery loop stopped:", e),
+    );
     while (!controller.signal.aborted) {
       try {
-        await startWorker({ db, signal: controller.signal });
+        await startWorker({ db, workerId, signal: controller.signal });
       } catch (e) {
         // A database hiccup must not kill the web server: log, wait, carry on.
         console.error("[recurra worker] stopped by an error; restarting in 5 s:", e);

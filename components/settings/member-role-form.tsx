@@ -1,6 +1,6 @@
 "use client";
 
-import { changeRoleAction } from "@/app/(app)/settings/actions";
+import { changeRoleAction } from "@/app/(app)/settings/members/actions";
 import { buttonClass } from "@/components/ui/button";
 import { useFormAction } from "@/components/ui/use-form-action";
 

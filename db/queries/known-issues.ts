@@ -23,6 +23,7 @@ import {
   type KnownIssueState,
 } from "@/db/schema";
 import { CAUTIONS, canChangeState, STATE_LABELS, type KnownIssueInput } from "@/lib/known-issues";
+import { getConfiguredBaseUrl } from "@/lib/env";
 import { unitToMiles } from "@/lib/units";
 import { findUserName } from "./accounts";
 import { recordAudit } from "./audit";
@@ -538,11 +539,8 @@ async function watcherAddresses(tx: DbOrTx, scope: OrgScope, id: number) {
 }
 
 function baseUrl(): string {
-  return (
-    process.env.RECURRA_BASE_URL ??
-    process.env.NEXTAUTH_URL ??
-    "http://localhost:3000"
-  ).replace(/\/$/, "");
+  // Links in e-mail: RECURRA_BASE_URL or NEXTAUTH_URL (README, "Configuration").
+  return getConfiguredBaseUrl() ?? "http://localhost:3000";
 }
 
 /** Moves a known issue to another state, with the reason; watchers get an e-mail. */

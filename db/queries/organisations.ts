@@ -112,3 +112,53 @@ export async function changeMemberRole(
     });
   });
 }
+
+/** Removes a member from the organisation (the account stays); never the last admin. */
+export async function removeMember(
+  db: Db,
+  scope: OrgScope,
+  input: { membershipId: number },
+): Promise<{ email: string }> {
+  assertCan(scope, "members:manage");
+  // libSQL transactions begin IMMEDIATE, so two admins removing each other at the same moment
+  // are serialised and the second one sees the first removal.
+  return db.transaction(async (tx) => {
+    const [member] = await tx
+      .select({
+        id: memberships.id,
+        role: memberships.role,
+        userId: memberships.userId,
+        email: users.email,
+      })
+      .from(memberships)
+      .innerJoin(users, eq(users.id, memberships.userId))
+      .where(orgWhere(memberships, scope, eq(memberships.id, input.membershipId)));
+    if (!member) throw new NotFoundError("No such member in this organisation.");
+    if (member.role === "admin") {
+      const [others] = await tx
+        .select({ n: sql<number>`count(*)` })
+        .from(memberships)
+        .where(
+          orgWhere(
+            memberships,
+            scope,
+            eq(memberships.role, "admin"),
+            ne(memberships.id, member.id),
+          ),
+        );
+      if (Number(others?.n ?? 0) === 0) {
+        throw new ConflictError(
+          "The organisation needs at least one admin: make someone else admin first.",
+        );
+      }
+    }
+    await tx.delete(memberships).where(orgWhere(memberships, scope, eq(memberships.id, member.id)));
+    await recordAudit(tx, scope, {
+      action: "member.remove",
+      entity: "membership",
+      entityId: member.id,
+      detail: { userId: member.userId, email: member.email, role: member.role },
+    });
+    return { email: member.email };
+  });
+}

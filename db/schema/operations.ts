@@ -141,8 +141,18 @@ export const jobs = sqliteTable(
   ],
 );
 
-export const EMAIL_STATUSES = ["queued", "sent", "failed"] as const;
+/**
+ * queued: waiting to be sent (again, after a back-off, when attempts remain) · sending: claimed
+ * by one deliverer under a lease · sent · failed (for good; lastError says why).
+ */
+export const EMAIL_STATUSES = ["queued", "sending", "sent", "failed"] as const;
+export type EmailStatus = (typeof EMAIL_STATUSES)[number];
 
+/**
+ * Mail waiting to go out. Rows are written in the same transaction as the change that causes
+ * them (db/queries/email.ts) and sent by the worker's delivery sweep (jobs/mail/outbox.ts),
+ * which claims due rows with a lease in one UPDATE, so two workers never send the same row.
+ */
 export const emailOutbox = sqliteTable(
   "email_outbox",
   {
@@ -157,10 +167,46 @@ export const emailOutbox = sqliteTable(
     status: text("status", { enum: EMAIL_STATUSES }).notNull().default("queued"),
     attempts: integer("attempts").notNull().default(0),
     lastError: text("last_error"),
+    /** Epoch ms before which the row is not tried (again). */
+    nextAttemptAt: integer("next_attempt_at").notNull().default(0),
+    leaseOwner: text("lease_owner"),
+    /** Epoch ms; a "sending" row whose lease expired (its deliverer died) is claimed again. */
+    leaseExpiresAt: integer("lease_expires_at"),
     createdAt: createdAt(),
     sentAt: text("sent_at"),
   },
-  (t) => [index("email_outbox_status").on(t.status, t.createdAt)],
+  (t) => [
+    index("email_outbox_status").on(t.status, t.createdAt),
+    index("email_outbox_due").on(t.status, t.nextAttemptAt),
+  ],
+);
+
+/**
+ * Mail received by the local SMTP capture (demo and development only; jobs/mail/capture.ts).
+ * The organisation is taken from the outbox row the message came from, so an admin reads only
+ * the mail of their own organisation; a message not from the outbox has none.
+ */
+export const capturedMail = sqliteTable(
+  "captured_mail",
+  {
+    id: id(),
+    organisationId: integer("organisation_id").references(() => organisations.id, {
+      onDelete: "cascade",
+    }),
+    outboxId: integer("outbox_id").references(() => emailOutbox.id, { onDelete: "set null" }),
+    messageId: text("message_id"),
+    fromAddress: text("from_address").notNull(),
+    toAddresses: text("to_addresses").notNull(),
+    subject: text("subject").notNull(),
+    textBody: text("text_body"),
+    htmlBody: text("html_body"),
+    sizeBytes: integer("size_bytes").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index("captured_mail_org").on(t.organisationId, t.id),
+    index("captured_mail_to").on(t.toAddresses),
+  ],
 );
 
 export const auditLog = sqliteTable(

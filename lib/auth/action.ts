@@ -38,15 +38,14 @@ export async function runAction<S extends z.ZodType>(
     return { ok: false, message: `Your role (${state.auth.role}) may not do this.` };
   }
   const parsed = schema.safeParse(formToObject(formData));
-  if (!parsed.success) {
-    return {
-      ok: false,
-      message: "Please correct the fields marked below.",
-      fieldErrors: z.flattenError(parsed.error).fieldErrors as Record<string, string[]>,
-    };
-  }
+  if (!parsed.success) return invalid(parsed.error);
+  return settle(() => fn(parsed.data, state.auth));
+}
+
+/** Runs the action body; typed data-layer errors become messages, anything else is logged. */
+async function settle(fn: () => Promise<ActionResult | void>): Promise<ActionResult> {
   try {
-    return (await fn(parsed.data, state.auth)) ?? { ok: true };
+    return (await fn()) ?? { ok: true };
   } catch (e) {
     unstable_rethrow(e);
     if (e instanceof ForbiddenError || e instanceof NotFoundError || e instanceof ConflictError) {
@@ -58,4 +57,27 @@ export async function runAction<S extends z.ZodType>(
       message: "Something went wrong on our side. It has been logged; try again.",
     };
   }
+}
+
+function invalid(error: z.ZodError): ActionResult {
+  return {
+    ok: false,
+    message: "Please correct the fields marked below.",
+    fieldErrors: z.flattenError(error).fieldErrors as Record<string, string[]>,
+  };
+}
+
+/**
+ * For the few actions open before sign-in (accepting an invitation, where the token is the
+ * authority and the data layer checks it): validate with zod → run → the caller revalidates,
+ * with the same result shape and error mapping as runAction.
+ */
+export async function runPublicAction<S extends z.ZodType>(
+  schema: S,
+  formData: FormData,
+  fn: (input: z.output<S>) => Promise<ActionResult | void>,
+): Promise<ActionResult> {
+  const parsed = schema.safeParse(formToObject(formData));
+  if (!parsed.success) return invalid(parsed.error);
+  return settle(() => fn(parsed.data));
 }

@@ -18,7 +18,9 @@ export type AuthContext = OrgScope & {
 
 export type AuthState =
   | { status: "signed-in"; auth: AuthContext }
-  | { status: "signed-out" | "expired" | "no-organisation" };
+  | { status: "signed-out" | "expired" }
+  /** Signed in, but a member of no organisation (yet): may still accept an invitation. */
+  | { status: "no-organisation"; user: { id: number; email: string; name: string } };
 
 const SESSION_COOKIES = ["next-auth.session-token", "__Secure-next-auth.session-token"];
 
@@ -40,7 +42,7 @@ export const getAuthState = cache(async (): Promise<AuthState> => {
   if (!user) return { status: "signed-out" };
   const organisation =
     memberships.find((m) => m.organisationId === session.organisationId) ?? memberships[0];
-  if (!organisation) return { status: "no-organisation" };
+  if (!organisation) return { status: "no-organisation", user };
   return {
     status: "signed-in",
     auth: {

@@ -17,6 +17,8 @@ export default async function globalSetup() {
     RECURRA_DATA_DIR: dir,
     NEXTAUTH_SECRET: "e2e-secret-not-for-production-0123456789",
     RECURRA_DEMO: "1",
+    // No mail server: the app's worker starts the local SMTP capture, which the tests read.
+    SMTP_URL: "",
     NEXT_TELEMETRY_DISABLED: "1",
   };
   execFileSync("npx", ["tsx", "--conditions=react-server", "jobs/cli.ts", "demo", "load"], {

@@ -3,8 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { getDb } from "@/db";
-import { changeMemberRole, updateOrganisationSettings } from "@/db/queries/organisations";
-import { DISTANCE_UNITS, ROLES } from "@/db/schema/organisations";
+import { updateOrganisationSettings } from "@/db/queries/organisations";
+import { DISTANCE_UNITS } from "@/db/schema/organisations";
 import { runAction, type ActionResult } from "@/lib/auth/action";
 
 const Settings = z.object({
@@ -29,21 +29,5 @@ export async function updateSettingsAction(
     await updateOrganisationSettings(await getDb(), auth, input);
     revalidatePath("/", "layout");
     return { ok: true, message: "Settings saved." };
-  });
-}
-
-const RoleChange = z.object({
-  membershipId: z.coerce.number().int().positive(),
-  role: z.enum(ROLES),
-});
-
-export async function changeRoleAction(
-  _prev: ActionResult | null,
-  formData: FormData,
-): Promise<ActionResult> {
-  return runAction("members:manage", RoleChange, formData, async (input, auth) => {
-    await changeMemberRole(await getDb(), auth, input);
-    revalidatePath("/settings");
-    return { ok: true, message: "Role changed." };
   });
 }

@@ -12,6 +12,14 @@ export const metadata: Metadata = { title: "Sign in" };
 
 const Reason = z.enum(["expired", "signed-out", "no-organisation"]).optional().catch(undefined);
 
+/** Where to go after signing in: a path inside the app only (never another site). */
+const Next = z
+  .string()
+  .max(500)
+  .regex(/^\/(?![/\\])[^\s]*$/)
+  .optional()
+  .catch(undefined);
+
 const NOTICES: Record<NonNullable<z.infer<typeof Reason>>, string> = {
   expired: "Your session has ended. Sign in again to carry on.",
   "signed-out": "You have signed out.",
@@ -24,9 +32,11 @@ export default async function SignInPage({
 }: {
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
-  const reason = Reason.parse((await searchParams).reason);
+  const query = await searchParams;
+  const reason = Reason.parse(query.reason);
+  const next = Next.parse(query.next);
   const state = await getAuthState();
-  if (state.status === "signed-in") redirect("/");
+  if (state.status === "signed-in") redirect(next ?? "/");
   const isDemo = getEnv().RECURRA_DEMO;
   return (
     <div className="w-full max-w-md">
@@ -43,7 +53,7 @@ export default async function SignInPage({
             {NOTICES[reason]}
           </p>
         ) : null}
-        <SignInForm />
+        <SignInForm next={next ?? "/"} />
       </div>
       {isDemo ? (
         <section

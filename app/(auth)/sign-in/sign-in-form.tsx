@@ -6,7 +6,7 @@ import { useState } from "react";
 import { buttonClass } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 
-export function SignInForm() {
+export function SignInForm({ next = "/" }: { next?: string }) {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
   const [isPending, setPending] = useState(false);
@@ -27,7 +27,7 @@ export function SignInForm() {
         setError("That e-mail and password do not match an account. Check both and try again.");
         return;
       }
-      router.replace("/");
+      router.replace(next);
       router.refresh();
     } catch {
       setError("Sign-in is not reachable right now. Try again in a moment.");

@@ -6,7 +6,7 @@ import type { AuthState } from "@/lib/auth/guard";
 const state = vi.hoisted(() => ({ current: { status: "signed-out" } as AuthState }));
 vi.mock("@/lib/auth/guard", () => ({ getAuthState: async () => state.current }));
 
-const { runAction, formToObject } = await import("@/lib/auth/action");
+const { runAction, runPublicAction, formToObject } = await import("@/lib/auth/action");
 
 function signedIn(role: "admin" | "manager" | "technician" | "viewer"): AuthState {
   const organisation = {
@@ -117,5 +117,30 @@ describe("runAction: authenticate → authorise → validate → run", () => {
 
   test("formToObject drops empty strings so optional fields stay optional", () => {
     expect(formToObject(form({ a: " ", b: "x" }))).toEqual({ a: undefined, b: "x" });
+  });
+});
+
+describe("runPublicAction: validate → run, for the invitation link", () => {
+  test("needs no session, still validates, and maps errors like runAction", async () => {
+    state.current = { status: "signed-out" };
+    const fn = vi.fn(async () => ({ ok: true as const }));
+    const bad = await runPublicAction(Schema, form({ name: "a", count: "1" }), fn);
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(Object.keys(bad.fieldErrors ?? {})).toEqual(["name"]);
+    expect(fn).not.toHaveBeenCalled();
+    expect(await runPublicAction(Schema, form({ name: "ab", count: "1" }), fn)).toEqual({
+      ok: true,
+    });
+    expect(fn).toHaveBeenCalledWith({ name: "ab", count: 1 });
+    const used = await runPublicAction(Schema, form({ name: "ab", count: "1" }), async () => {
+      throw new ConflictError("This invitation has already been used.");
+    });
+    expect(used).toEqual({ ok: false, message: "This invitation has already been used." });
+    const spy = vi.spyOn(console, "error").mockImplementation(() => {});
+    const crash = await runPublicAction(Schema, form({ name: "ab", count: "1" }), async () => {
+      throw new Error("SQLITE_BUSY: database is locked");
+    });
+    spy.mockRestore();
+    expect(JSON.stringify(crash)).not.toContain("SQLITE");
   });
 });
