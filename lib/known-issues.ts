@@ -295,6 +295,14 @@ export const FindingForm = z
         message: "Choose the known issue this finding is about.",
       });
     }
+    const dtcs = parseDtcList(f.dtcCodes);
+    if (dtcs.invalid.length > 0) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["dtcCodes"],
+        message: `Not a diagnostic trouble code (SAE J2012 form, e.g. P0496): ${dtcs.invalid.join(", ")}.`,
+      });
+    }
     if (f.outcome === "something-else" && !f.cause) {
       ctx.addIssue({
         code: "custom",

@@ -23,6 +23,16 @@ const NAV: Record<Exclude<DemoRole, "shopManager">, string[]> = {
     "Stocking",
     "Imports",
   ],
+  shopManager: [
+    "Home",
+    "Patterns",
+    "Known issues",
+    "Lookup",
+    "Vehicles",
+    "Refuel analysis",
+    "Stocking",
+    "Imports",
+  ],
   technician: ["Home", "Patterns", "Known issues", "Lookup", "Vehicles"],
   viewer: ["Home", "Patterns", "Known issues", "Refuel analysis"],
 };

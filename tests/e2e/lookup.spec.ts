@@ -1,0 +1,115 @@
+import { mkdirSync, writeFileSync } from "node:fs";
+import { expect, orgId, queryDb, screenshot, signIn, test } from "./support";
+
+/** Page objects in a PDF: `/Type /Page` (not `/Type /Pages`, the page tree). */
+function countPdfPages(pdf: Buffer): number {
+  return pdf.toString("latin1").match(/\/Type\s*\/Page(?![s\w])/g)?.length ?? 0;
+}
+
+test("technician: a Kestrel K2 with P0496 gets the purge valve first, prints one page, records the cause", async ({
+  page,
+}) => {
+  const north = await orgId("northgate");
+  // A Northgate Aurel Kestrel K2 from the demo (the planted purge-valve pattern's cohort).
+  const [v] = await queryDb<{ id: number; vin: string; last_odometer_mi: number }>(
+    `select v.id, v.vin, v.last_odometer_mi from vehicles v join generations g on g.id = v.generation_id
+      where v.organisation_id = ? and v.make = 'Aurel' and v.model = 'Kestrel' and g.label = 'K2'
+        and v.vin is not null and v.last_odometer_mi is not null
+      order by v.id desc limit 1`,
+    [north],
+  );
+  expect(v).toBeDefined();
+  const odometer = String(Math.round(Number(v!.last_odometer_mi)));
+
+  await signIn(page, "technician");
+  await page.goto("/lookup");
+  await page.getByLabel("VIN").fill(v!.vin);
+  await page.getByLabel("Odometer (mi)").fill(odometer);
+  await page.getByLabel("Codes (DTCs)").fill("P0496");
+  await page.getByRole("button", { name: "Look up" }).click();
+  await page.waitForURL(/\/lookup\?.*vin=/);
+
+  // The VIN is decoded (49 CFR 565) and the code's structure shown (SAE J2012).
+  await expect(page.getByTestId("vin-check")).toContainText("check digit correct");
+  await expect(page.getByTestId("codes")).toContainText("powertrain, generic (SAE/ISO)");
+  await expect(page.getByTestId("vehicle-found")).toContainText("Aurel Kestrel K2");
+
+  const first = page.getByTestId("cause").first();
+  await expect(first.getByRole("heading", { level: 3 })).toContainText(
+    "Stalls just after refuelling: purge valve sticking open",
+  );
+  await expect(first.getByTestId("cause-share")).toContainText(/Was the cause in \d+ of \d+/);
+  await expect(first.getByTestId("checks").getByRole("listitem")).toHaveCount(5);
+  await expect(first.getByTestId("checks").getByRole("listitem").first()).toContainText(
+    "within a few miles of a fill-up",
+  );
+  await expect(first.getByTestId("cautions")).toContainText("Fuel vapour");
+  await expect(first.getByTestId("fix-success")).toContainText(/Fix held in \d+ of \d+/);
+  await expect(page.getByRole("note")).toContainText(
+    "Manufacturer procedures, local codes and licensed practice come first",
+  );
+  // Every result block carries its cautions.
+  const blocks = await page.getByTestId("cause").count();
+  await expect(page.getByTestId("cautions")).toHaveCount(blocks);
+  await expect(page.getByRole("button", { name: "Print sheet" })).toBeVisible();
+  await screenshot(page, "lookup-desktop");
+
+  // The printable sheet: one page on A4 and on Letter.
+  mkdirSync("test-results/screens", { recursive: true });
+  await page.emulateMedia({ media: "print" });
+  for (const format of ["A4", "Letter"] as const) {
+    const pdf = await page.pdf({ format, printBackground: true });
+    writeFileSync(`test-results/screens/lookup-sheet-${format.toLowerCase()}.pdf`, pdf);
+    expect(countPdfPages(pdf), `${format} sheet pages`).toBe(1);
+  }
+  // A picture of the sheet as printed (A4 less 10 mm margins is about 718 px wide at 96 dpi).
+  const desktop = page.viewportSize()!;
+  await page.setViewportSize({ width: 718, height: 1000 });
+  await screenshot(page, "lookup-print");
+  await page.setViewportSize(desktop);
+  await page.emulateMedia({ media: "screen" });
+
+  // Tablet at the bay: about 800 px wide, nothing wider than the screen.
+  await page.setViewportSize({ width: 800, height: 1180 });
+  await screenshot(page, "lookup-tablet");
+  const overflow = await page.evaluate(
+    () => document.documentElement.scrollWidth - document.documentElement.clientWidth,
+  );
+  expect(overflow).toBeLessThanOrEqual(0);
+
+  // Record the finding: this was the cause.
+  await first.getByRole("button", { name: "This was the cause" }).click();
+  const status = first.getByRole("status");
+  await expect(status).toContainText("Recorded: this was the cause");
+  await expect(status).toContainText(/Repair order F-\d+/);
+  await screenshot(page, "lookup-recorded");
+  const [finding] = await queryDb<{ outcome: string; ro_number: string }>(
+    `select f.outcome, o.ro_number from known_issue_findings f
+       join repair_lines l on l.id = f.repair_line_id join repair_orders o on o.id = l.repair_order_id
+      where f.vehicle_id = ? order by f.id desc limit 1`,
+    [v!.id],
+  );
+  expect(finding?.outcome).toBe("confirmed");
+  await expect(status).toContainText(String(finding?.ro_number));
+});
+
+test("a VIN that is not in the organisation is decoded and said plainly; a bad code is named", async ({
+  page,
+}) => {
+  await signIn(page, "technician");
+  // 49 CFR 565 worked example with its check digit changed (trade-facts.md): a warning only.
+  await page.goto("/lookup?vin=1M8GDM9A1KP042788&dtc=P0496+X12");
+  await expect(page.getByRole("alert").first()).toContainText(
+    "No vehicle with VIN 1M8GDM9A1KP042788",
+  );
+  await expect(page.getByTestId("vin-check")).toContainText("warning: check digit does not match");
+  await expect(page.getByTestId("vin-check")).toContainText("model year 1989"); // position 7 is a digit: 1980–2009 cycle (49 CFR 565, 73 FR 23367);
+  await expect(page.locator("#dtc-error")).toContainText("Not a diagnostic trouble code");
+  await expect(page.getByLabel("Codes (DTCs)")).toHaveValue("P0496 X12");
+});
+
+test("a viewer gets 403 on the lookup", async ({ page }) => {
+  await signIn(page, "viewer");
+  const res = await page.goto("/lookup");
+  expect(res?.status()).toBe(403);
+});
