@@ -190,6 +190,9 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
     unitNumber: v.unit_number,
     vin: v.vin,
     cohort: `${v.make} ${v.model} ${v.generation ?? ""}`.trim(),
+    make: v.make,
+    model: v.model,
+    generation: v.generation,
     lastOdometerMi: num(v.last_odometer_mi),
   });
   const affected = cohortVehicles.filter((v) => affectedIds.has(Number(v.id))).map(vehicleOf);

@@ -90,9 +90,9 @@ export async function listKnownIssues(
       createdAt: knownIssues.createdAt,
       updatedAt: knownIssues.updatedAt,
       confirmed: sql<number>`(select count(*) from known_issue_findings f
-        where f.known_issue_id = ${knownIssues.id} and f.outcome = 'confirmed')`,
+        where f.known_issue_id = known_issues.id and f.outcome = 'confirmed')`,
       notTheCause: sql<number>`(select count(*) from known_issue_findings f
-        where f.known_issue_id = ${knownIssues.id} and f.outcome = 'not-the-cause')`,
+        where f.known_issue_id = known_issues.id and f.outcome = 'not-the-cause')`,
     })
     .from(knownIssues)
     .leftJoin(components, eq(components.id, knownIssues.componentId))
@@ -169,6 +169,7 @@ export async function getKnownIssue(db: Db, scope: OrgScope, id: number) {
           quantity: knownIssueParts.quantity,
           description: parts.description,
           onHand: parts.onHand,
+          unitCostCents: parts.unitCostCents,
         })
         .from(knownIssueParts)
         .leftJoin(parts, eq(parts.id, knownIssueParts.partId))

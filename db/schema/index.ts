@@ -7,3 +7,4 @@ export * from "./known-issues";
 export * from "./analysis";
 export * from "./operations";
 export * from "./staging";
+export * from "./campaigns";

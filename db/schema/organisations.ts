@@ -52,6 +52,8 @@ export const memberships = sqliteTable(
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
     role: text("role", { enum: ROLES }).notNull(),
+    /** Receives the weekly digest of this organisation (opt-in, per member). */
+    wantsDigest: integer("wants_digest", { mode: "boolean" }).notNull().default(false),
     createdAt: createdAt(),
   },
   (t) => [

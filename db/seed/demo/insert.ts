@@ -1,6 +1,8 @@
 import { eq, inArray, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db";
 import {
+  campaignVehicles,
+  campaigns,
   analysisRuns,
   auditLog,
   cellStats,
@@ -231,6 +233,8 @@ export async function insertDemoOrganisation(
  * never trips a foreign key and never leaves a cascade with much to do.
  */
 const TENANT_TABLES_CHILD_FIRST = [
+  campaignVehicles,
+  campaigns,
   knownIssueFindings,
   knownIssueAttachments,
   knownIssueWatchers,
@@ -303,6 +307,8 @@ export async function upsertDemoAccounts(
       organisationId: requireId(organisationIds, slug, "organisation"),
       userId: requireId(userIds, a.email, "user"),
       role: a.role,
+      // Managers and admins of the demo read the weekly digest.
+      wantsDigest: a.role === "manager" || a.role === "admin",
     })),
   );
   await tx
@@ -310,7 +316,7 @@ export async function upsertDemoAccounts(
     .values(rows)
     .onConflictDoUpdate({
       target: [memberships.organisationId, memberships.userId],
-      set: { role: sql`excluded.role` },
+      set: { role: sql`excluded.role`, wantsDigest: sql`excluded.wants_digest` },
     });
   return accounts.length;
 }

@@ -98,6 +98,10 @@ describe("the known-issue form", () => {
   });
 });
 
+/** Any vehicle id of the organisation of a listed known issue (for a hand-made finding). */
+const anyVehicleId = () =>
+  sql`(select id from vehicles where organisation_id = ${scope.shopManager!.organisationId} limit 1)`;
+
 describe("the demo's known issues", () => {
   test("each organisation has its own, with checks, cautions and watchers", async () => {
     const north = await listKnownIssues(db, scope.shopManager!);
@@ -113,6 +117,12 @@ describe("the demo's known issues", () => {
     expect(detail.checks.length).toBeGreaterThanOrEqual(3);
     expect(detail.cautions.map((c) => c.kind)).toContain("fuel-vapour");
     expect(detail.watchers.length).toBeGreaterThan(0);
+    // The list's finding counts are this issue's own (one finding recorded here).
+    await db.run(sql`insert into known_issue_findings (organisation_id, known_issue_id, vehicle_id, outcome)
+      values (${scope.shopManager!.organisationId}, ${purge.id}, ${anyVehicleId()}, 'confirmed')`);
+    const listed = (await listKnownIssues(db, scope.shopManager!)).find((k) => k.id === purge.id)!;
+    expect(listed.confirmedFindings).toBe(1);
+    expect(listed.notTheCause).toBe(0);
     // Another organisation cannot open it.
     expect(await getKnownIssue(db, scope.tidewater!, purge.id)).toBeNull();
   });

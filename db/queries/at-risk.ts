@@ -1,0 +1,171 @@
+import "server-only";
+import { sql } from "drizzle-orm";
+import type { Db } from "@/db";
+import { expectedFailures, median } from "@/lib/at-risk";
+import { unitToMiles } from "@/lib/units";
+import { getKnownIssueEvidence } from "./known-issue-evidence";
+import { getKnownIssue, listKnownIssues } from "./known-issues";
+import { assertCan, type OrgScope } from "./scope";
+
+export type AtRiskRow = {
+  vehicleId: number;
+  unitNumber: string | null;
+  vin: string | null;
+  cohort: string;
+  odometerMi: number;
+  /** Why: a confirmed known issue, or a computed signal (cohort × band × fault). */
+  source:
+    | { kind: "known-issue"; id: number; title: string }
+    | { kind: "signal"; faultKey: string; label: string };
+  rangeFromMi: number | null;
+  rangeToMi: number | null;
+  /** Miles until the range starts (0 inside it). */
+  toRangeMi: number;
+  /** Expected failures of this fault over the next `nextMiles`. */
+  expected: number;
+  /** A proactive fix: parts + typical hours at the organisation's median labour rate. */
+  fixCostCents: number | null;
+};
+
+/** Rates per mile by band for each "make|model|label|faultKey", from the computed cells. */
+async function ratesByCohortFault(db: Db, scope: OrgScope) {
+  const rows = await db.all<{ k: string; band_index: number; rate: number | null }>(sql`
+    select make || '|' || model || '|' || cohort_label || '|' || fault_key as k, band_index,
+           coalesce(shrunk_rate_per_10k, rate_per_10k) as rate
+      from cell_stats where organisation_id = ${scope.organisationId} and fault_key <> 'all'`);
+  const out = new Map<string, Map<number, number>>();
+  for (const r of rows) {
+    const m = out.get(r.k) ?? new Map<number, number>();
+    m.set(Number(r.band_index), Number(r.rate ?? 0) / 10_000);
+    out.set(r.k, m);
+  }
+  return out;
+}
+
+/**
+ * The at-risk watch-list: vehicles in cohorts with a confirmed known issue or a signal whose
+ * latest odometer is inside its mileage range or within one band before it, and not yet
+ * repaired for it; with the expected failures over the next miles and the cost of fixing first.
+ */
+export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMiles: number }) {
+  assertCan(scope, "campaigns:manage");
+  const [org] = await db.all<{ band_width: number; distance_unit: "mi" | "km" }>(sql`
+    select band_width, distance_unit from organisations where id = ${scope.organisationId}`);
+  if (!org) throw new Error("getAtRiskVehicles: organisation missing");
+  const bandWidthMi = unitToMiles(org.band_width, org.distance_unit);
+  const rates = await ratesByCohortFault(db, scope);
+  // The organisation's labour rate: the median of labour cost per hour on its repair lines.
+  const labour = await db.all<{ per_hour: number }>(sql`
+    select labor_cost_cents * 1.0 / labor_hours as per_hour from repair_lines
+     where organisation_id = ${scope.organisationId} and labor_hours > 0 and labor_cost_cents > 0`);
+  const labourPerHourCents = median(labour.map((l) => Number(l.per_hour)));
+  const rows: AtRiskRow[] = [];
+  const seen = new Set<string>();
+
+  for (const item of await listKnownIssues(db, scope, { state: "confirmed" })) {
+    const issue = await getKnownIssue(db, scope, item.id);
+    if (!issue) continue;
+    const evidence = await getKnownIssueEvidence(db, scope, issue);
+    const faultKey = issue.component
+      ? `component:${issue.component.slug}`
+      : `dtc:${issue.dtcCodes[0]}`;
+    // Parts at list cost when the parts list prices them all, else the average parts cost of
+    // past repairs of its component; plus its typical hours at the median labour rate.
+    const listed = issue.parts.reduce(
+      (s, p) => (s === null || p.unitCostCents === null ? null : s + p.unitCostCents * p.quantity),
+      issue.parts.length > 0 ? 0 : (null as number | null),
+    );
+    const [past] = issue.component
+      ? await db.all<{ avg: number | null }>(sql`
+          select avg(l.parts_cost_cents) as avg from repair_lines l
+           where l.organisation_id = ${scope.organisationId} and l.parts_cost_cents is not null
+             and l.component_id = (select id from components where slug = ${issue.component.slug})`)
+      : [];
+    const partsCents =
+      listed ?? (past?.avg === null || past?.avg === undefined ? null : Number(past.avg));
+    const fixCostCents =
+      partsCents === null && issue.typicalHours === null
+        ? null
+        : (partsCents ?? 0) + (issue.typicalHours ?? 0) * labourPerHourCents;
+    for (const v of evidence.atRisk) {
+      const byBand = rates.get(`${v.make}|${v.model}|${v.generation}|${faultKey}`) ?? new Map();
+      seen.add(`${v.id}|${faultKey}`);
+      rows.push({
+        vehicleId: v.id,
+        unitNumber: v.unitNumber,
+        vin: v.vin,
+        cohort: v.cohort,
+        odometerMi: v.lastOdometerMi ?? 0,
+        source: { kind: "known-issue", id: issue.id, title: issue.title },
+        rangeFromMi: issue.mileageFromMi,
+        rangeToMi: issue.mileageToMi,
+        toRangeMi: v.toRangeMi,
+        expected: expectedFailures(v.lastOdometerMi ?? 0, opts.nextMiles, bandWidthMi, byBand),
+        fixCostCents: fixCostCents === null ? null : Math.round(fixCostCents),
+      });
+    }
+  }
+
+  // Signals: vehicles of the cohort inside the band or within one band before it, never
+  // repaired for the fault inside the band.
+  const signalRows = await db.all<{
+    id: number;
+    unit_number: string | null;
+    vin: string | null;
+    make: string;
+    model: string;
+    label: string;
+    odometer: number;
+    fault_key: string;
+    band_from_mi: number;
+    band_to_mi: number;
+    fault_label: string | null;
+    avg_cost: number | null;
+  }>(sql`
+    select v.id, v.unit_number, v.vin, v.make, v.model, c.cohort_label as label,
+           v.last_odometer_mi as odometer, c.fault_key, c.band_from_mi, c.band_to_mi,
+           coalesce(d.code || ' ' || d.description, k.system || ' → ' || k.name) as fault_label,
+           (select avg(coalesce(l.parts_cost_cents, 0) + coalesce(l.labor_cost_cents, 0))
+              from repair_lines l join vehicles v2 on v2.id = l.vehicle_id
+              left join generations g2 on g2.id = v2.generation_id
+             where l.organisation_id = ${scope.organisationId} and v2.make = c.make and v2.model = c.model
+               and coalesce(g2.label, cast(v2.model_year as text)) = c.cohort_label
+               and (l.component_id = c.component_id or exists (select 1 from repair_line_codes rc
+                    where rc.repair_line_id = l.id and rc.dtc = c.dtc))) as avg_cost
+      from cell_stats c
+      join vehicles v on v.organisation_id = c.organisation_id and v.make = c.make and v.model = c.model
+      left join generations g on g.id = v.generation_id
+      left join dtc_codes d on d.code = c.dtc
+      left join components k on k.id = c.component_id
+     where c.organisation_id = ${scope.organisationId} and c.is_signal = 1 and c.fault_key <> 'all'
+       and coalesce(g.label, cast(v.model_year as text)) = c.cohort_label
+       and v.last_odometer_mi >= c.band_from_mi - ${bandWidthMi} and v.last_odometer_mi < c.band_to_mi
+       and not exists (select 1 from repair_lines l where l.vehicle_id = v.id
+             and l.odometer_mi >= c.band_from_mi and l.odometer_mi < c.band_to_mi
+             and (l.component_id = c.component_id or exists (select 1 from repair_line_codes rc
+                  where rc.repair_line_id = l.id and rc.dtc = c.dtc)))`);
+  for (const r of signalRows) {
+    if (seen.has(`${r.id}|${r.fault_key}`)) continue;
+    seen.add(`${r.id}|${r.fault_key}`);
+    const byBand = rates.get(`${r.make}|${r.model}|${r.label}|${r.fault_key}`) ?? new Map();
+    rows.push({
+      vehicleId: Number(r.id),
+      unitNumber: r.unit_number,
+      vin: r.vin,
+      cohort: `${r.make} ${r.model} ${r.label}`,
+      odometerMi: Number(r.odometer),
+      source: {
+        kind: "signal",
+        faultKey: r.fault_key,
+        label: r.fault_label ?? r.fault_key.replace(/^dtc:|^component:/, ""),
+      },
+      rangeFromMi: Number(r.band_from_mi),
+      rangeToMi: Number(r.band_to_mi),
+      toRangeMi: Math.max(0, Number(r.band_from_mi) - Number(r.odometer)),
+      expected: expectedFailures(Number(r.odometer), opts.nextMiles, bandWidthMi, byBand),
+      fixCostCents: r.avg_cost === null ? null : Math.round(Number(r.avg_cost)),
+    });
+  }
+  rows.sort((a, b) => b.expected - a.expected || a.toRangeMi - b.toRangeMi);
+  return { rows, labourPerHourCents: Math.round(labourPerHourCents), bandWidthMi };
+}

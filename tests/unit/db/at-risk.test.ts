@@ -1,0 +1,116 @@
+import { sql } from "drizzle-orm";
+import { beforeAll, describe, expect, test } from "vitest";
+import type { Db } from "@/db";
+import { getAtRiskVehicles } from "@/db/queries/at-risk";
+import {
+  addToCampaign,
+  getCampaign,
+  listCampaigns,
+  setCampaignVehicleDone,
+} from "@/db/queries/campaigns";
+import { ConflictError, ForbiddenError, NotFoundError, type OrgScope } from "@/db/queries/scope";
+import { findOrganisationBySlug } from "@/db/queries/system";
+import { loadDemo } from "@/db/seed/demo";
+import { recomputeOrganisation } from "@/jobs/recompute/recompute";
+import { expectedFailures } from "@/lib/at-risk";
+import { createTestDb } from "../../support/test-db";
+
+describe("expectedFailures (piecewise-constant Poisson rate over bands)", () => {
+  const rates = new Map([
+    [0, 0.0001],
+    [1, 0.0004],
+  ]);
+  test("inside one band it is rate × miles", () => {
+    expect(expectedFailures(5_000, 10_000, 25_000, rates)).toBeCloseTo(1, 12);
+  });
+  test("across a band edge each part uses its band's rate; past the cells it is 0", () => {
+    // 20,000 → 25,000 at 0.0001 (0.5) + 25,000 → 30,000 at 0.0004 (2.0).
+    expect(expectedFailures(20_000, 10_000, 25_000, rates)).toBeCloseTo(2.5, 12);
+    expect(expectedFailures(60_000, 10_000, 25_000, rates)).toBe(0);
+    expect(expectedFailures(0, 0, 25_000, rates)).toBe(0);
+  });
+});
+
+describe("the at-risk watch-list and campaign lists on the demo", () => {
+  let db: Db;
+  let fleet: OrgScope;
+  let shop: OrgScope;
+  beforeAll(async () => {
+    ({ db } = await createTestDb());
+    await loadDemo(db);
+    const tide = await findOrganisationBySlug(db, "tidewater");
+    const north = await findOrganisationBySlug(db, "northgate");
+    await recomputeOrganisation(db, tide.id);
+    await recomputeOrganisation(db, north.id);
+    fleet = { organisationId: tide.id, userId: null, role: "manager" };
+    shop = { organisationId: north.id, userId: null, role: "manager" };
+  }, 120_000);
+
+  test("vehicles approaching the confirmed Merlin M2 ground-strap issue are listed with expected failures", async () => {
+    const { rows } = await getAtRiskVehicles(db, fleet, { nextMiles: 10_000 });
+    const m2 = rows.filter(
+      (r) =>
+        r.source.kind === "known-issue" && r.source.title.startsWith("Harsh or flaring shifts"),
+    );
+    expect(m2.length).toBeGreaterThan(0);
+    for (const r of m2) {
+      expect(r.cohort).toBe("Aurel Merlin M2");
+      expect(r.odometerMi).toBeGreaterThanOrEqual(75_000 - 25_000);
+      expect(r.expected).toBeGreaterThan(0);
+      expect(r.fixCostCents).not.toBeNull();
+    }
+    // Sorted by expected failures, most first.
+    const expected = rows.map((r) => r.expected);
+    expect(expected).toEqual([...expected].sort((a, b) => b - a));
+    // None of them has had the fix inside the range.
+    const ids = m2.map((r) => r.vehicleId);
+    const [fixed] = await db.all<{ n: number }>(sql`
+      select count(*) as n from repair_lines l join components k on k.id = l.component_id
+       where l.vehicle_id in (${sql.join(
+         ids.map((i) => sql`${i}`),
+         sql`, `,
+       )})
+         and k.slug = 'power-distribution/body-ground' and l.odometer_mi >= 75000`);
+    expect(Number(fixed?.n)).toBe(0);
+  });
+
+  test("campaign lists: add, no duplicates, done and undone; organisations and roles enforced", async () => {
+    const { rows } = await getAtRiskVehicles(db, fleet, { nextMiles: 10_000 });
+    const ids = [...new Set(rows.map((r) => r.vehicleId))].slice(0, 3);
+    const { campaignId, added } = await addToCampaign(db, fleet, {
+      name: "Ground straps",
+      vehicleIds: ids,
+    });
+    expect(added).toBe(ids.length);
+    const again = await addToCampaign(db, fleet, { campaignId, vehicleIds: ids });
+    expect(again.added).toBe(0);
+    await expect(
+      addToCampaign(db, fleet, { name: "Ground straps", vehicleIds: ids }),
+    ).rejects.toBeInstanceOf(ConflictError);
+    const c = (await getCampaign(db, fleet, campaignId))!;
+    expect(c.vehicles).toHaveLength(ids.length);
+    await setCampaignVehicleDone(db, fleet, { campaignVehicleId: c.vehicles[0]!.id, done: true });
+    expect((await listCampaigns(db, fleet))[0]).toMatchObject({
+      name: "Ground straps",
+      vehicles: ids.length,
+      done: 1,
+    });
+    await setCampaignVehicleDone(db, fleet, { campaignVehicleId: c.vehicles[0]!.id, done: false });
+    expect((await listCampaigns(db, fleet))[0]?.done).toBe(0);
+
+    // Another organisation sees nothing and cannot touch it, nor add its own vehicles here.
+    expect(await getCampaign(db, shop, campaignId)).toBeNull();
+    await expect(
+      setCampaignVehicleDone(db, shop, { campaignVehicleId: c.vehicles[0]!.id, done: true }),
+    ).rejects.toBeInstanceOf(NotFoundError);
+    const [shopVehicle] = await db.all<{ id: number }>(
+      sql`select id from vehicles where organisation_id = ${shop.organisationId} limit 1`,
+    );
+    await expect(
+      addToCampaign(db, fleet, { campaignId, vehicleIds: [Number(shopVehicle?.id)] }),
+    ).rejects.toBeInstanceOf(NotFoundError);
+    await expect(
+      getAtRiskVehicles(db, { ...fleet, role: "technician" }, { nextMiles: 1000 }),
+    ).rejects.toBeInstanceOf(ForbiddenError);
+  });
+});
