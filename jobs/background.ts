@@ -1,4 +1,5 @@
 import { getDatabase } from "@/db";
+import { startDigestSchedule } from "./digest/schedule";
 import { startMailer } from "./mail/mailer";
 import { defaultWorkerId, startWorker } from "./worker";
 
@@ -23,6 +24,8 @@ export function startBackgroundWorker(): void {
     void startMailer({ db, workerId, signal: controller.signal }).catch((e: unknown) =>
       console.error("[recurra mail] the delivery loop stopped:", e),
     );
+    // The weekly digest is queued on its schedule; the job sends it once per organisation and week.
+    startDigestSchedule({ db, signal: controller.signal });
     while (!controller.signal.aborted) {
       try {
         await startWorker({ db, workerId, signal: controller.signal });

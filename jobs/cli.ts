@@ -8,6 +8,7 @@ import { readFile } from "node:fs/promises";
 import { basename } from "node:path";
 import { Command, Option } from "commander";
 import { getStockingPlan } from "@/db/queries/stocking";
+import { sendDigest } from "./digest/digest";
 import { StockingQuery } from "@/lib/stocking-request";
 import { z } from "zod";
 import { getDatabase } from "@/db";
@@ -420,6 +421,34 @@ export function buildProgram(): Command {
           };
         },
       ),
+    );
+
+  program
+    .command("digest")
+    .description(
+      "send this week's digest to the members who opted in (once per week unless --force)",
+    )
+    .requiredOption("--org <slug>", "organisation slug")
+    .option("--force", "send again even if this week's digest went out")
+    .action(
+      action(async (opts: { org: string; force?: boolean }) => {
+        const { db, org } = await operatorScope(opts.org);
+        const r = await sendDigest(db, org.id, { force: opts.force });
+        return {
+          data: {
+            week: r.week,
+            recipients: r.recipients,
+            skipped: r.skipped,
+            newSignals: r.digest.newSignals.length,
+            stateChanges: r.digest.stateChanges.length,
+            comebacks: r.digest.comebacks.length,
+            atRisk: r.digest.atRisk.length,
+          },
+          text: r.skipped
+            ? `${org.slug}: the digest of ${r.week} already went out (use --force to send again).`
+            : `${org.slug}: digest of ${r.week} queued for ${r.recipients} members (${r.digest.newSignals.length} new signals, ${r.digest.stateChanges.length} state changes).`,
+        };
+      }),
     );
 
   const demo = program.command("demo").description("invented demo scenario");

@@ -4,6 +4,7 @@
  */
 import { getDatabase } from "@/db";
 import { migrateDatabase } from "@/db/migrate";
+import { startDigestSchedule } from "./digest/schedule";
 import { startMailer } from "./mail/mailer";
 import { defaultWorkerId, startWorker } from "./worker";
 
@@ -23,6 +24,11 @@ const mailer = startMailer({
 }).catch((e: unknown) => {
   // Jobs go on without mail; the outbox keeps the messages for the next start.
   process.stderr.write(`[recurra mail] the delivery loop stopped: ${String(e)}\n`);
+});
+startDigestSchedule({
+  db,
+  signal: controller.signal,
+  log: (m) => process.stderr.write(`[recurra digest] ${m}\n`),
 });
 await startWorker({
   db,

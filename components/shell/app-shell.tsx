@@ -37,6 +37,9 @@ export function AppShell({ auth, children }: { auth: AuthContext; children: Reac
               {auth.user.name} ·{" "}
               <span className="font-medium text-ink">{ROLE_LABELS[auth.role]}</span>
             </span>
+            <Link href="/account" className="text-sm">
+              Account
+            </Link>
             <SignOutButton />
           </div>
         </div>

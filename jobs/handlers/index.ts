@@ -1,5 +1,6 @@
 import type { Db } from "@/db";
 import type { Job } from "../queue";
+import { digestJobHandler } from "./digest";
 import { importJobHandler } from "./import";
 import { recomputeJobHandler } from "./recompute";
 
@@ -23,4 +24,5 @@ export type JobHandler = {
 export const HANDLERS: Record<string, JobHandler> = {
   import: importJobHandler,
   recompute: recomputeJobHandler,
+  digest: digestJobHandler,
 };

@@ -1,0 +1,240 @@
+import escapeHtml from "escape-html";
+import { sql } from "drizzle-orm";
+import type { Db } from "@/db";
+import { getAtRiskVehicles } from "@/db/queries/at-risk";
+import { queueEmail } from "@/db/queries/email";
+import { findComebacks } from "@/lib/comebacks";
+import { getConfiguredBaseUrl } from "@/lib/env";
+import { STATE_LABELS } from "@/lib/known-issues";
+import { unitToMiles } from "@/lib/units";
+import type { KnownIssueState } from "@/db/schema";
+
+/** ISO week key such as "2026-W49" (ISO 8601: weeks start on Monday; week 1 holds 4 January). */
+export function isoWeekKey(date: Date): string {
+  const d = new Date(Date.UTC(date.getUTCFullYear(), date.getUTCMonth(), date.getUTCDate()));
+  const day = d.getUTCDay() || 7;
+  d.setUTCDate(d.getUTCDate() + 4 - day);
+  const yearStart = Date.UTC(d.getUTCFullYear(), 0, 1);
+  const week = Math.ceil(((d.getTime() - yearStart) / 86_400_000 + 1) / 7);
+  return `${d.getUTCFullYear()}-W${String(week).padStart(2, "0")}`;
+}
+
+export type Digest = {
+  organisation: { id: number; name: string; distanceUnit: "mi" | "km" };
+  since: string;
+  newSignals: { label: string; band: string; events: number; ratioLower: number | null }[];
+  stateChanges: { title: string; from: string; to: string; reason: string; at: string }[];
+  comebacks: { fault: string; count: number }[];
+  atRisk: { vehicle: string; why: string; expected: number }[];
+};
+
+const whole = (mi: number, unit: "mi" | "km") =>
+  Math.round(unit === "km" ? mi * 1.609344 : mi).toLocaleString("en-GB");
+
+/**
+ * What happened in an organisation since a date: signals first seen, known-issue state changes,
+ * comebacks (the second visit inside the organisation's window) by fault, and the vehicles most
+ * at risk now.
+ */
+export async function buildDigest(db: Db, organisationId: number, since: Date): Promise<Digest> {
+  const sinceIso = since.toISOString();
+  const [org] = await db.all<{
+    id: number;
+    name: string;
+    distance_unit: "mi" | "km";
+    comeback_days: number;
+    comeback_distance: number;
+  }>(
+    sql`select id, name, distance_unit, comeback_days, comeback_distance from organisations where id = ${organisationId}`,
+  );
+  if (!org) throw new Error(`buildDigest: no organisation ${organisationId}`);
+  const unit = org.distance_unit;
+  const signals = await db.all<{
+    make: string;
+    model: string;
+    cohort_label: string;
+    fault_key: string;
+    band_index: number;
+    events: number;
+    ratio_lower: number | null;
+    band_width_mi: number | null;
+  }>(sql`
+    select s.make, s.model, s.cohort_label, s.fault_key, s.band_index, s.events, s.ratio_lower,
+           (select band_width_mi from analysis_runs r where r.id = s.last_run_id) as band_width_mi
+      from signals s
+     where s.organisation_id = ${organisationId} and s.created_at >= ${sinceIso} and s.state <> 'dismissed'
+     order by s.ratio_lower desc limit 20`);
+  const states = await db.all<{
+    title: string;
+    from_state: KnownIssueState;
+    to_state: KnownIssueState;
+    reason: string;
+    created_at: string;
+  }>(sql`
+    select k.title, s.from_state, s.to_state, s.reason, s.created_at
+      from known_issue_states s join known_issues k on k.id = s.known_issue_id
+     where s.organisation_id = ${organisationId} and s.from_state is not null and s.created_at >= ${sinceIso}
+     order by s.created_at`);
+  // Comebacks whose second visit falls in the period, by fault (component, else first DTC).
+  const lines = await db.all<{
+    id: number;
+    vehicle_id: number;
+    opened_on: string;
+    odometer_mi: number | null;
+    fault: string | null;
+  }>(sql`
+    select l.id, l.vehicle_id, l.opened_on, l.odometer_mi,
+           coalesce(k.system || ' → ' || k.name, (select min(dtc) from repair_line_codes c where c.repair_line_id = l.id)) as fault
+      from repair_lines l left join components k on k.id = l.component_id
+     where l.organisation_id = ${organisationId}
+       and l.opened_on >= date(${sinceIso}, ${`-${org.comeback_days + 1} days`})`);
+  const byFault = new Map<string, typeof lines>();
+  for (const l of lines) {
+    if (!l.fault) continue;
+    byFault.set(l.fault, [...(byFault.get(l.fault) ?? []), l]);
+  }
+  const window = { days: org.comeback_days, miles: unitToMiles(org.comeback_distance, unit) };
+  const sinceDay = sinceIso.slice(0, 10);
+  const comebacks = [...byFault.entries()]
+    .map(([fault, ls]) => ({
+      fault,
+      count: findComebacks(
+        ls.map((l) => ({
+          id: Number(l.id),
+          vehicleId: Number(l.vehicle_id),
+          openedOn: String(l.opened_on),
+          odometerMi: l.odometer_mi === null ? null : Number(l.odometer_mi),
+        })),
+        window,
+      ).filter((c) => c.again.openedOn >= sinceDay).length,
+    }))
+    .filter((c) => c.count > 0)
+    .sort((a, b) => b.count - a.count)
+    .slice(0, 5);
+  const { rows } = await getAtRiskVehicles(
+    db,
+    { organisationId, userId: null, role: "admin" },
+    { nextMiles: unitToMiles(10_000, unit) },
+  );
+  return {
+    organisation: { id: org.id, name: org.name, distanceUnit: unit },
+    since: sinceDay,
+    newSignals: signals.map((s) => {
+      const width = s.band_width_mi ?? 25_000;
+      return {
+        label: `${s.make} ${s.model} ${s.cohort_label} · ${s.fault_key.replace(/^dtc:|^component:/, "")}`,
+        band: `${whole(s.band_index * width, unit)}–${whole((s.band_index + 1) * width, unit)} ${unit}`,
+        events: Number(s.events),
+        ratioLower: s.ratio_lower === null ? null : Number(s.ratio_lower),
+      };
+    }),
+    stateChanges: states.map((s) => ({
+      title: s.title,
+      from: STATE_LABELS[s.from_state].label,
+      to: STATE_LABELS[s.to_state].label,
+      reason: s.reason,
+      at: s.created_at.slice(0, 10),
+    })),
+    comebacks,
+    atRisk: rows.slice(0, 10).map((r) => ({
+      vehicle: r.unitNumber ?? r.vin ?? `#${r.vehicleId}`,
+      why: r.source.kind === "known-issue" ? r.source.title : `signal: ${r.source.label}`,
+      expected: r.expected,
+    })),
+  };
+}
+
+/** The digest as an e-mail: a plain-text part and an HTML part with the same content. */
+export function renderDigest(d: Digest): { subject: string; text: string; html: string } {
+  const base = getConfiguredBaseUrl() ?? "http://localhost:3000";
+  const sections: { title: string; empty: string; items: string[] }[] = [
+    {
+      title: "New signals",
+      empty: "No new signals.",
+      items: d.newSignals.map(
+        (s) =>
+          `${s.label}, ${s.band}: ${s.events} repairs, at least ${s.ratioLower === null ? "—" : s.ratioLower.toFixed(1)}× the rest of the fleet`,
+      ),
+    },
+    {
+      title: "Known issues that changed state",
+      empty: "No state changes.",
+      items: d.stateChanges.map((c) => `${c.title}: ${c.from} → ${c.to} (${c.at}) — ${c.reason}`),
+    },
+    {
+      title: "Top comebacks",
+      empty: "No comebacks.",
+      items: d.comebacks.map(
+        (c) => `${c.fault}: ${c.count} vehicle${c.count === 1 ? "" : "s"} back`,
+      ),
+    },
+    {
+      title: "Vehicles most at risk",
+      empty: "No vehicle is approaching a confirmed known issue or a signal.",
+      items: d.atRisk.map(
+        (a) =>
+          `${a.vehicle}: ${a.why} (${a.expected.toFixed(2)} failures expected in the next 10,000 ${d.organisation.distanceUnit})`,
+      ),
+    },
+  ];
+  const subject = `Recurra weekly digest: ${d.organisation.name} — ${d.newSignals.length} new signal${d.newSignals.length === 1 ? "" : "s"}`;
+  const text = [
+    `${d.organisation.name}: what changed since ${d.since}.`,
+    "",
+    ...sections.flatMap((s) => [
+      s.title.toUpperCase(),
+      ...(s.items.length ? s.items.map((i) => `- ${i}`) : [s.empty]),
+      "",
+    ]),
+    `Open Recurra: ${base}/`,
+    "You get this because you opted in to the weekly digest (Account page).",
+  ].join("\n");
+  const html = [
+    `<p>${escapeHtml(d.organisation.name)}: what changed since ${escapeHtml(d.since)}.</p>`,
+    ...sections.map(
+      (s) =>
+        `<h2 style="font-size:16px">${escapeHtml(s.title)}</h2>` +
+        (s.items.length
+          ? `<ul>${s.items.map((i) => `<li>${escapeHtml(i)}</li>`).join("")}</ul>`
+          : `<p>${escapeHtml(s.empty)}</p>`),
+    ),
+    `<p><a href="${escapeHtml(base)}/">Open Recurra</a></p>`,
+    `<p style="color:#666">You get this because you opted in to the weekly digest (Account page).</p>`,
+  ].join("\n");
+  return { subject, text, html };
+}
+
+/**
+ * Queues this week's digest to every member who opted in, once per organisation and ISO week
+ * (a ledger entry in the audit log makes a second run, or a second web node, a no-op unless
+ * forced).
+ */
+export async function sendDigest(
+  db: Db,
+  organisationId: number,
+  opts: { now?: Date; force?: boolean } = {},
+): Promise<{ week: string; recipients: number; skipped: boolean; digest: Digest }> {
+  const now = opts.now ?? new Date();
+  const week = isoWeekKey(now);
+  const since = new Date(now.getTime() - 7 * 86_400_000);
+  const digest = await buildDigest(db, organisationId, since);
+  const mail = renderDigest(digest);
+  return db.transaction(async (tx) => {
+    const [already] = await tx.all<{ n: number }>(sql`
+      select count(*) as n from audit_log where organisation_id = ${organisationId}
+         and action = 'digest.sent' and entity_id = ${week}`);
+    if (Number(already?.n) > 0 && !opts.force) {
+      return { week, recipients: 0, skipped: true, digest };
+    }
+    const recipients = await tx.all<{ email: string }>(sql`
+      select u.email from memberships m join users u on u.id = m.user_id
+       where m.organisation_id = ${organisationId} and m.wants_digest = 1 and u.disabled_at is null
+       order by u.email`);
+    for (const r of recipients) {
+      await queueEmail(tx, { organisationId, to: r.email, ...mail });
+    }
+    await tx.run(sql`insert into audit_log (organisation_id, action, entity, entity_id, detail)
+      values (${organisationId}, 'digest.sent', 'digest', ${week}, ${JSON.stringify({ recipients: recipients.length })})`);
+    return { week, recipients: recipients.length, skipped: false, digest };
+  });
+}

@@ -1,0 +1,91 @@
+import { sql } from "drizzle-orm";
+import { beforeAll, describe, expect, test } from "vitest";
+import type { Db } from "@/db";
+import { changeKnownIssueState, listKnownIssues } from "@/db/queries/known-issues";
+import { setDigestOptIn } from "@/db/queries/preferences";
+import { findOrganisationBySlug } from "@/db/queries/system";
+import { loadDemo } from "@/db/seed/demo";
+import { buildDigest, isoWeekKey, renderDigest, sendDigest } from "@/jobs/digest/digest";
+import { recomputeOrganisation } from "@/jobs/recompute/recompute";
+import { createTestDb } from "../../support/test-db";
+
+describe("isoWeekKey (ISO 8601 week numbering)", () => {
+  test("weeks start on Monday; 1 January 2021 belongs to week 53 of 2020", () => {
+    expect(isoWeekKey(new Date("2021-01-01T12:00:00Z"))).toBe("2020-W53");
+    expect(isoWeekKey(new Date("2021-01-04T00:00:00Z"))).toBe("2021-W01");
+    expect(isoWeekKey(new Date("2026-12-02T08:00:00Z"))).toBe("2026-W49");
+    expect(isoWeekKey(new Date("2026-12-06T23:00:00Z"))).toBe("2026-W49");
+    expect(isoWeekKey(new Date("2026-12-07T00:00:00Z"))).toBe("2026-W50");
+  });
+});
+
+describe("the weekly digest on the demo", () => {
+  let db: Db;
+  let tide: number;
+  beforeAll(async () => {
+    ({ db } = await createTestDb());
+    await loadDemo(db);
+    tide = (await findOrganisationBySlug(db, "tidewater")).id;
+    await recomputeOrganisation(db, tide);
+  }, 120_000);
+
+  test("lists the new signals and this week's state changes, in both parts", async () => {
+    const manager = await db.all<{ id: number }>(
+      sql`select id from users where email = 'manager@recurra.example'`,
+    );
+    const scope = {
+      organisationId: tide,
+      userId: Number(manager[0]?.id),
+      role: "manager" as const,
+    };
+    const [issue] = await listKnownIssues(db, scope, { state: "watching" });
+    await changeKnownIssueState(db, scope, {
+      knownIssueId: issue!.id,
+      toState: "confirmed",
+      reason: "Seen five times.",
+    });
+    const digest = await buildDigest(db, tide, new Date(Date.now() - 7 * 86_400_000));
+    const [{ n } = { n: 0 }] = await db.all<{ n: number }>(
+      sql`select count(*) as n from signals where organisation_id = ${tide}`,
+    );
+    expect(digest.newSignals.length).toBe(Math.min(20, Number(n)));
+    expect(digest.newSignals.length).toBeGreaterThan(0);
+    expect(digest.stateChanges).toEqual([
+      expect.objectContaining({ title: issue!.title, from: "Watching", to: "Confirmed" }),
+    ]);
+    expect(digest.atRisk.length).toBeGreaterThan(0);
+    const mail = renderDigest(digest);
+    expect(mail.subject).toMatch(
+      /^Recurra weekly digest: Tidewater Parcel Co-op — \d+ new signals?$/,
+    );
+    for (const part of [mail.text, mail.html]) {
+      expect(part).toContain(digest.newSignals[0]!.label.split(" · ")[0]);
+      expect(part).toContain("Seen five times.");
+    }
+  });
+
+  test("goes once a week to the members who opted in; --force sends again", async () => {
+    const now = new Date("2026-12-07T07:00:00Z");
+    const first = await sendDigest(db, tide, { now });
+    // The demo's manager and admin opted in.
+    expect(first).toMatchObject({ week: "2026-W50", skipped: false, recipients: 2 });
+    const again = await sendDigest(db, tide, { now });
+    expect(again).toMatchObject({ skipped: true, recipients: 0 });
+    const outbox = await db.all<{ to_address: string }>(sql`
+      select to_address from email_outbox where subject like 'Recurra weekly digest:%' order by to_address`);
+    expect(outbox.map((o) => o.to_address)).toEqual([
+      "admin@recurra.example",
+      "manager@recurra.example",
+    ]);
+    // The manager opts out; a forced send goes to the admin only.
+    const [m] = await db.all<{ id: number }>(
+      sql`select id from users where email = 'manager@recurra.example'`,
+    );
+    await setDigestOptIn(
+      db,
+      { organisationId: tide, userId: Number(m?.id), role: "manager" },
+      false,
+    );
+    expect((await sendDigest(db, tide, { now, force: true })).recipients).toBe(1);
+  });
+});
