@@ -57,7 +57,11 @@ function repairsCsv(n: number, prefix: string): string {
 
 beforeAll(async () => {
   primary = await startSqld({ isPrimary: true });
-  replica = await startSqld({ primaryGrpcUrl: primary.grpcUrl ?? "" });
+  // A folder of its own that outlives a stop, so the replica can be restarted on it.
+  replica = await startSqld({
+    dbPath: join(mkdtempSync(join(tmpdir(), "recurra-replica-")), "db.sqld"),
+    primaryGrpcUrl: primary.grpcUrl ?? "",
+  });
   const p = await openDatabase(primary.url);
   const r = await openDatabase(replica.url);
   closers.push(

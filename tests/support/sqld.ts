@@ -118,7 +118,8 @@ async function waitUntilUp(url: string, child: ChildProcess, logs: string[]): Pr
 }
 
 /**
- * Starts sqld on free loopback ports in `dbPath` (a new temporary folder by default). With
+ * Starts sqld on free loopback ports in `dbPath` (by default a new temporary folder, removed by
+ * `stop`/`kill`). With
  * `isPrimary` it also listens for replicas on a loopback gRPC port; with `primaryGrpcUrl` it is
  * a replica of that primary (reads served locally, writes forwarded).
  */
@@ -126,7 +127,9 @@ export async function startSqld(
   opts: { dbPath?: string; isPrimary?: boolean; primaryGrpcUrl?: string } = {},
 ): Promise<SqldServer> {
   const bin = ensureSqld();
-  const dbPath = opts.dbPath ?? join(mkdtempSync(join(tmpdir(), "recurra-sqld-")), "db.sqld");
+  // A folder made here is removed when the server is stopped; a given one is kept.
+  const ownDir = opts.dbPath ? null : mkdtempSync(join(tmpdir(), "recurra-sqld-"));
+  const dbPath = opts.dbPath ?? join(ownDir as string, "db.sqld");
   const port = await freePort();
   const url = `http://127.0.0.1:${port}`;
   const args = ["--no-welcome", "--db-path", dbPath, "--http-listen-addr", `127.0.0.1:${port}`];
@@ -167,12 +170,14 @@ export async function startSqld(
       await exited;
       clearTimeout(timer);
     }
+    if (ownDir) rmSync(ownDir, { recursive: true, force: true });
   };
   const kill = async () => {
     if (child.exitCode === null && child.signalCode === null) {
       child.kill("SIGKILL");
       await exited;
     }
+    if (ownDir) rmSync(ownDir, { recursive: true, force: true });
   };
   try {
     await waitUntilUp(url, child, logs);
