@@ -143,7 +143,7 @@ describe("command line", () => {
 
     const text = await recurra("org", "list");
     expect(text.stdout).toMatch(/harbour-vans\s+fleet\s+0 vehicles\s+Harbour Vans/);
-  });
+  }, 120_000); // eight CLI processes (npx → tsx → node): slow on a busy 2-core machine
 
   test("an unknown role is refused by the argument parser", async () => {
     const r = await recurra(
