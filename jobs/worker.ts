@@ -96,23 +96,37 @@ export async function startWorker(opts: WorkerOptions): Promise<void> {
   const leaseMs = opts.leaseMs ?? 30_000;
   const pollMs = opts.pollMs ?? 1_000;
   const log = opts.log ?? ((m: string) => console.warn(`[recurra worker] ${m}`));
+  const isLongRunning = !opts.isOneShot && !opts.jobId;
+  let pauseMs = pollMs;
   while (!opts.signal?.aborted) {
-    for (const job of await reapAbandonedJobs(opts.db)) {
-      await HANDLERS[job.kind]?.onGiveUp?.(job, job.lastError ?? "abandoned", {
-        db: opts.db,
-        job,
-        log,
-        setProgress: () => {},
-        hasLease: () => false,
-      });
-    }
-    const job = await claimJob(opts.db, { workerId, leaseMs, jobId: opts.jobId });
-    if (job) {
-      await runJob(opts.db, job, workerId, leaseMs, log);
-      if (opts.jobId) return;
-      continue;
+    try {
+      for (const job of await reapAbandonedJobs(opts.db)) {
+        await HANDLERS[job.kind]?.onGiveUp?.(job, job.lastError ?? "abandoned", {
+          db: opts.db,
+          job,
+          log,
+          setProgress: () => {},
+          hasLease: () => false,
+        });
+      }
+      const job = await claimJob(opts.db, { workerId, leaseMs, jobId: opts.jobId });
+      pauseMs = pollMs;
+      if (job) {
+        await runJob(opts.db, job, workerId, leaseMs, log);
+        if (opts.jobId) return;
+        continue;
+      }
+    } catch (e) {
+      // A long-running worker outlives database hiccups: a libSQL server answers SQLITE_BUSY
+      // while it still holds the write lock of a client that died mid-transaction (it rolls it
+      // back after a few seconds), and a server can restart. Wait, with back-off, and go on.
+      if (!isLongRunning) throw e;
+      pauseMs = Math.min(30_000, Math.max(pollMs, pauseMs * 2));
+      log(
+        `database error, trying again in ${pauseMs} ms: ${e instanceof Error ? e.message : String(e)}`,
+      );
     }
     if (opts.isOneShot) return;
-    await sleep(pollMs, undefined, { signal: opts.signal }).catch(() => {});
+    await sleep(pauseMs, undefined, { signal: opts.signal }).catch(() => {});
   }
 }

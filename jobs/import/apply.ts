@@ -1,5 +1,5 @@
 import type { InStatement } from "@libsql/client";
-import type { Db } from "@/db";
+import { isLocalFileDatabase, type Db } from "@/db";
 import type { ImportKind } from "@/db/schema";
 
 /**
@@ -203,8 +203,10 @@ export async function applyStagedImport(
     [
       // Large applies sort and index a lot: a bigger page cache for this connection makes them
       // several times faster; the soft heap limit keeps SQLite's sorters from growing past it.
-      "pragma cache_size = -32768",
-      "pragma soft_heap_limit = 100000000",
+      // A libSQL server refuses these PRAGMAs (it is configured on the server instead).
+      ...(isLocalFileDatabase(db)
+        ? ["pragma cache_size = -32768", "pragma soft_heap_limit = 100000000"]
+        : []),
       ...statements,
       `update imports set status = 'done', finished_at = strftime('%Y-%m-%dT%H:%M:%fZ', 'now'),
               rows_imported = ${importedSql},

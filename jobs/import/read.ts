@@ -2,7 +2,7 @@ import { createReadStream } from "node:fs";
 import { Transform } from "node:stream";
 import { parse } from "csv-parse";
 import { eq } from "drizzle-orm";
-import type { Db } from "@/db";
+import { isLocalFileDatabase, type Db } from "@/db";
 import { componentAliases, components, vehicles, type ImportKind } from "@/db/schema";
 import {
   buildComponentIndex,
@@ -196,12 +196,18 @@ export async function readAndStage(db: Db, input: ReadInput): Promise<ReadResult
       `update imports set bytes_read = ${bytesRead}, rows_total = ${rowsTotal}, rows_rejected = ${rejected},
          rows_warning = ${warnings}, rows_duplicate = ${duplicatesInFile} where id = ${input.importId}`,
     );
-    const tx = await db.$client.transaction("write");
-    try {
-      await tx.executeMultiple(statements.join(";\n"));
-      await tx.commit();
-    } finally {
-      tx.close();
+    if (isLocalFileDatabase(db)) {
+      const tx = await db.$client.transaction("write");
+      try {
+        await tx.executeMultiple(statements.join(";\n"));
+        await tx.commit();
+      } finally {
+        tx.close();
+      }
+    } else {
+      // On a libSQL server, one atomic batch: one round trip, and no interactive transaction
+      // whose write lock the server keeps for seconds if this worker dies in the middle.
+      await db.$client.batch(statements, "write");
     }
     staged += pendingRows.length;
     pendingRows = [];

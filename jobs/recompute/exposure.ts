@@ -60,11 +60,12 @@ export async function computeExposure(
     const from = ids[i] as number;
     const to = ids[Math.min(ids.length, i + PAGE) - 1] as number;
     // One row per vehicle: its readings as "day,miles;day,miles;…" (days since 1970, the day's
-    // highest reading, in day order). A few thousand strings cross into JavaScript instead of a
-    // million row objects.
+    // highest reading). A few thousand strings cross into JavaScript instead of a million row
+    // objects. They are put in day order here: group_concat(… order by …) needs SQLite 3.44,
+    // which the libSQL server's statement parser does not accept.
     const rs = await db.$client.execute({
       sql: `select vehicle_id,
-                   group_concat(cast(julianday(day) - 2440587.5 as integer) || ',' || odometer_mi, ';' order by day) as readings
+                   group_concat(cast(julianday(day) - 2440587.5 as integer) || ',' || odometer_mi, ';') as readings
               from (select vehicle_id, day, max(odometer_mi) as odometer_mi from (
                 select vehicle_id, opened_on as day, odometer_mi from repair_orders
                  where organisation_id = ?1 and vehicle_id between ?2 and ?3 and odometer_mi is not null
@@ -91,6 +92,7 @@ export async function computeExposure(
           odometer: Number(pair.slice(comma + 1)),
         });
       }
+      batch.sort((a, b) => a.at - b.at);
       readings += batch.length;
       const { kept, ignored } = cleanOdometerReadings(batch);
       readingsIgnored += ignored;

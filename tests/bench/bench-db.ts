@@ -26,8 +26,11 @@ export function ensureBenchDatabase(rows: number): void {
   });
 }
 
-/** Runs the full recompute on the benchmark database in its own process; its JSON result. */
-export function recomputeBenchDatabase(): {
+/**
+ * Runs the full recompute on the benchmark database (or the same data on a libSQL server at
+ * `url`) in its own process; its JSON result.
+ */
+export function recomputeBenchDatabase(url = `file:${benchDbPath}`): {
   seconds: number;
   cells: number;
   signals: number;
@@ -37,7 +40,7 @@ export function recomputeBenchDatabase(): {
     process.execPath,
     ["--import", "tsx", "--conditions=react-server", "tests/bench/stats-run.ts"],
     {
-      env: { ...process.env, DATABASE_URL: `file:${benchDbPath}`, RECURRA_DATA_DIR: benchDir },
+      env: { ...process.env, DATABASE_URL: url, RECURRA_DATA_DIR: benchDir },
       stdio: ["ignore", "pipe", "inherit"],
     },
   ).toString();

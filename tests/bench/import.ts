@@ -5,15 +5,20 @@
  * 2. Times the `sqlite3` command line's `.import` of the same file into a plain typed table.
  * 3. Imports it through the product's own pipeline into a fresh database, in a child process
  *    (tests/bench/import-run.ts), timing it and reading that process's peak RSS.
+ * 4. With `--server`: the same import again into a fresh libSQL server (sqld on loopback, see
+ *    tests/support/sqld.ts), and the ratio server / file.
  * Prints both rates, their ratio and the peak RSS, and as the last line one JSON object.
  */
 import { execFileSync } from "node:child_process";
-import { existsSync, mkdirSync, rmSync, statSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, rmSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { parseArgs } from "node:util";
+import { startSqld } from "../support/sqld";
 import { BENCH_COLUMNS, writeBenchRepairs } from "./repairs-csv";
 
-const { values } = parseArgs({ options: { rows: { type: "string", default: "1000000" } } });
+const { values } = parseArgs({
+  options: { rows: { type: "string", default: "1000000" }, server: { type: "boolean" } },
+});
 const rows = Number(values.rows);
 if (!Number.isInteger(rows) || rows < 1) throw new Error("--rows must be a positive integer");
 
@@ -41,42 +46,79 @@ const floorSeconds = (performance.now() - t0) / 1000;
 // The product's pipeline, in its own process and database.
 const productDb = join(dir, "import-product.db");
 for (const suffix of ["", "-wal", "-shm"]) rmSync(productDb + suffix, { force: true });
-rmSync(join(dir, "uploads"), { recursive: true, force: true });
-const out = execFileSync(
-  process.execPath,
-  ["--import", "tsx", "--conditions=react-server", "tests/bench/import-run.ts", csv],
-  {
-    env: {
-      ...process.env,
-      DATABASE_URL: `file:${productDb}`,
-      RECURRA_DATA_DIR: dir,
-      RECURRA_WORKER: "0",
-    },
-    stdio: ["ignore", "pipe", "inherit"],
-    maxBuffer: 16 * 1024 * 1024,
-  },
-).toString();
-const product = JSON.parse(out.trim().split("\n").at(-1) ?? "{}") as {
+type ImportRun = {
   status: string;
   rows: number;
   imported: number;
   seconds: number;
   peakRssMb: number;
 };
-if (product.status !== "done" || product.rows !== rows) {
-  throw new Error(`the benchmark import did not finish cleanly: ${out}`);
+
+/** The product's import in its own process against DATABASE_URL `url`. */
+function runProductImport(url: string): ImportRun {
+  rmSync(join(dir, "uploads"), { recursive: true, force: true });
+  const out = execFileSync(
+    process.execPath,
+    ["--import", "tsx", "--conditions=react-server", "tests/bench/import-run.ts", csv],
+    {
+      env: { ...process.env, DATABASE_URL: url, RECURRA_DATA_DIR: dir, RECURRA_WORKER: "0" },
+      stdio: ["ignore", "pipe", "inherit"],
+      maxBuffer: 16 * 1024 * 1024,
+    },
+  ).toString();
+  const run = JSON.parse(out.trim().split("\n").at(-1) ?? "{}") as ImportRun;
+  if (run.status !== "done" || run.rows !== rows) {
+    throw new Error(`the benchmark import did not finish cleanly: ${out}`);
+  }
+  return run;
 }
+
+const product = runProductImport(`file:${productDb}`);
 
 const rowsPerSecond = Math.round(rows / product.seconds);
 const floorRowsPerSecond = Math.round(rows / floorSeconds);
 const ratio = Math.round((product.seconds / floorSeconds) * 100) / 100;
 const peakRssMb = Math.round(product.peakRssMb);
-process.stdout.write(
-  [
-    `file: ${rows.toLocaleString("en-GB")} repair lines, ${mb.toFixed(1)} MB`,
-    `Recurra import (upload → check → stage → apply): ${product.seconds.toFixed(2)} s, ${rowsPerSecond.toLocaleString("en-GB")} rows/s, peak RSS ${peakRssMb} MB`,
-    `sqlite3 .import into a plain table (floor):      ${floorSeconds.toFixed(2)} s, ${floorRowsPerSecond.toLocaleString("en-GB")} rows/s`,
-    `ratio (Recurra time / floor time): ${ratio}  (target ≤ 4; peak RSS target ≤ 300 MB)`,
-    JSON.stringify({ rows, rowsPerSecond, floorRowsPerSecond, ratio, peakRssMb }),
-  ].join("\n") + "\n",
-);
+const lines = [
+  `file: ${rows.toLocaleString("en-GB")} repair lines, ${mb.toFixed(1)} MB`,
+  `Recurra import (upload → check → stage → apply): ${product.seconds.toFixed(2)} s, ${rowsPerSecond.toLocaleString("en-GB")} rows/s, peak RSS ${peakRssMb} MB`,
+  `sqlite3 .import into a plain table (floor):      ${floorSeconds.toFixed(2)} s, ${floorRowsPerSecond.toLocaleString("en-GB")} rows/s`,
+  `ratio (Recurra time / floor time): ${ratio}  (target ≤ 4; peak RSS target ≤ 300 MB)`,
+];
+const figures: Record<string, unknown> = {
+  rows,
+  rowsPerSecond,
+  floorRowsPerSecond,
+  ratio,
+  peakRssMb,
+};
+
+if (values.server) {
+  // The same import into a fresh libSQL server on loopback, after the file run.
+  const sqldDir = join(dir, "sqld");
+  rmSync(sqldDir, { recursive: true, force: true });
+  const server = await startSqld({ dbPath: sqldDir });
+  try {
+    const onServer = runProductImport(server.url);
+    const sqldPeak = /VmHWM:\s+(\d+) kB/.exec(
+      readFileSync(`/proc/${server.process.pid}/status`, "utf8"),
+    );
+    const serverRatio = Math.round((onServer.seconds / product.seconds) * 100) / 100;
+    const serverRowsPerSecond = Math.round(rows / onServer.seconds);
+    const sqldPeakMb = sqldPeak ? Math.round(Number(sqldPeak[1]) / 1024) : null;
+    lines.push(
+      `Recurra import into a libSQL server (sqld, loopback HTTP): ${onServer.seconds.toFixed(2)} s, ${serverRowsPerSecond.toLocaleString("en-GB")} rows/s, peak RSS ${Math.round(onServer.peakRssMb)} MB (sqld ${sqldPeakMb} MB)`,
+      `ratio server / file: ${serverRatio}`,
+    );
+    Object.assign(figures, {
+      serverSeconds: Math.round(onServer.seconds * 100) / 100,
+      serverRowsPerSecond,
+      serverPeakRssMb: Math.round(onServer.peakRssMb),
+      sqldPeakRssMb: sqldPeakMb,
+      serverRatio,
+    });
+  } finally {
+    await server.stop();
+  }
+}
+process.stdout.write([...lines, JSON.stringify(figures)].join("\n") + "\n");

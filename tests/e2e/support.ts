@@ -16,7 +16,10 @@ const EXPECTED_CONSOLE =
   /Failed to load resource: the server responded with a status of (401|403|404|409|413|415)/;
 
 export const test = base.extend<{ consoleErrors: string[] }>({
-  baseURL: async ({}, use) => use(process.env.E2E_BASE_URL),
+  // One server (E2E_BASE_URL), or one per project when several web nodes are tested
+  // (playwright.server.config.ts: E2E_BASE_URL_node-a, E2E_BASE_URL_node-b).
+  baseURL: async ({}, use, testInfo) =>
+    use(process.env[`E2E_BASE_URL_${testInfo.project.name}`] ?? process.env.E2E_BASE_URL),
   consoleErrors: [
     async ({ page }, use) => {
       const errors: string[] = [];

@@ -1,7 +1,5 @@
 import { createHash } from "node:crypto";
-import { mkdtempSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { rmSync } from "node:fs";
 import type { Client } from "@libsql/client";
 import { sql, type SQL } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -19,20 +17,21 @@ import {
 import { COMPONENTS } from "@/db/seed/reference";
 import { verifyPassword } from "@/lib/auth/password";
 import { checkVin } from "@/lib/vin";
+import { createTestDatabaseUrl } from "../../support/test-db";
 
 /**
  * The demo loader against real file databases: volumes, integrity, determinism, idempotence,
  * and that each planted pattern shows up in a plain SQL query.
  */
 
-type Handle = { dir: string; client: Client; db: Db };
+type Handle = { dir: string; client: Client; db: Db; stop: () => Promise<void> };
 const handles: Handle[] = [];
 
 async function openFreshDatabase(): Promise<Handle> {
-  const dir = mkdtempSync(join(tmpdir(), "recurra-"));
-  const { client, db } = await openDatabase(`file:${dir}/t.db`);
+  const { url, dir, stop } = await createTestDatabaseUrl();
+  const { client, db } = await openDatabase(url);
   await migrateDatabase(db);
-  const handle = { dir, client, db };
+  const handle = { dir, client, db, stop };
   handles.push(handle);
   return handle;
 }
@@ -72,7 +71,15 @@ async function digestDemo(db: Db): Promise<string> {
         from parts p join organisations g on g.id = p.organisation_id left join components c on c.id = p.component_id
         order by g.slug, p.part_number`,
   ];
-  for (const query of queries) hash.update(JSON.stringify(await db.all(query)));
+  // In pages: a libSQL server caps one response (10 MB by default).
+  const PAGE = 5_000;
+  for (const query of queries) {
+    for (let offset = 0; ; offset += PAGE) {
+      const page = await db.all(sql`${query} limit ${PAGE} offset ${offset}`);
+      hash.update(JSON.stringify(page));
+      if (page.length < PAGE) break;
+    }
+  }
   return hash.digest("hex");
 }
 
@@ -139,9 +146,10 @@ beforeAll(async () => {
   orgIds = Object.fromEntries(rows.map((r) => [r.slug, r.id]));
 }, 60_000);
 
-afterAll(() => {
+afterAll(async () => {
   for (const h of handles) {
     h.client.close();
+    await h.stop();
     rmSync(h.dir, { recursive: true, force: true });
   }
 });

@@ -1,6 +1,4 @@
-import { mkdtempSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { rmSync } from "node:fs";
 import type { Client } from "@libsql/client";
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -13,6 +11,7 @@ import {
   listComponentIds,
   loadReferenceData,
 } from "@/db/seed/reference";
+import { createTestDatabaseUrl } from "../../support/test-db";
 import { parseDtc } from "@/lib/dtc";
 
 /** The generic codes trade-facts.md lists for the demo (SAE J2012 structure). */
@@ -66,17 +65,20 @@ describe("DTC reference", () => {
 
 describe("loadReferenceData", () => {
   let dir: string;
+  let stop: () => Promise<void>;
   let client: Client;
   let db: Db;
 
   beforeAll(async () => {
-    dir = mkdtempSync(join(tmpdir(), "recurra-"));
-    ({ client, db } = await openDatabase(`file:${dir}/t.db`));
+    let url: string;
+    ({ url, dir, stop } = await createTestDatabaseUrl());
+    ({ client, db } = await openDatabase(url));
     await migrateDatabase(db);
   });
 
-  afterAll(() => {
+  afterAll(async () => {
     client.close();
+    await stop();
     rmSync(dir, { recursive: true, force: true });
   });
 
