@@ -8,6 +8,7 @@ export const NAV_ITEMS: { href: string; label: string; capability: Capability }[
   { href: "/lookup", label: "Lookup", capability: "lookup:use" },
   { href: "/vehicles", label: "Vehicles", capability: "vehicles:read" },
   { href: "/refuel", label: "Refuel analysis", capability: "refuel:read" },
+  { href: "/comebacks", label: "Comebacks", capability: "comebacks:read" },
   { href: "/stocking", label: "Stocking", capability: "stocking:read" },
   { href: "/imports", label: "Imports", capability: "imports:read" },
   { href: "/settings", label: "Settings", capability: "settings:manage" },
