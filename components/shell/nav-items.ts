@@ -9,6 +9,7 @@ export const NAV_ITEMS: { href: string; label: string; capability: Capability }[
   { href: "/vehicles", label: "Vehicles", capability: "vehicles:read" },
   { href: "/refuel", label: "Refuel analysis", capability: "refuel:read" },
   { href: "/at-risk", label: "At risk", capability: "campaigns:manage" },
+  { href: "/comebacks", label: "Comebacks", capability: "comebacks:read" },
   { href: "/stocking", label: "Stocking", capability: "stocking:read" },
   { href: "/imports", label: "Imports", capability: "imports:read" },
   { href: "/settings", label: "Settings", capability: "settings:manage" },

@@ -16,6 +16,7 @@ export const CAPABILITIES = {
   "lookup:use": ["admin", "manager", "technician"],
   "findings:record": ["admin", "manager", "technician"],
   "stocking:read": ["admin", "manager"],
+  "comebacks:read": ["admin", "manager"],
   "parts:manage": ["admin", "manager"],
   "imports:read": ["admin", "manager"],
   "imports:write": ["admin", "manager"],

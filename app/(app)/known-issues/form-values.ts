@@ -7,6 +7,7 @@ import {
 } from "@/db/queries/known-issues";
 import { faultKeyOf, getCellDetail, type CellKey } from "@/db/queries/patterns";
 import { componentOfDtc } from "@/db/queries/reference";
+import { getRefuelAnalysis, type RefuelSymptom } from "@/db/queries/refuel";
 import type { OrgScope } from "@/db/queries/scope";
 import { SYMPTOMS } from "@/db/schema/records";
 import type {
@@ -15,7 +16,7 @@ import type {
 } from "@/components/known-issues/known-issue-form";
 import { formatBand, formatInterval, formatSig, ratePerTenThousand } from "@/lib/format";
 import { CAUTIONS, cautionsForComponent, SYMPTOM_LABELS } from "@/lib/known-issues";
-import { milesToUnit } from "@/lib/units";
+import { milesToUnit, unitToMiles } from "@/lib/units";
 import { CAUTION_KINDS } from "@/db/schema/known-issues";
 
 const EMPTY: KnownIssueFormValues = {
@@ -158,3 +159,45 @@ export async function valuesFromCell(
 }
 
 export const EMPTY_VALUES = EMPTY;
+
+/**
+ * The form prefilled from the refuel analysis (a cohort whose stalls or no-starts cluster after
+ * fill-ups): the cohort, the symptoms, the fuel-vapour caution and the test's result in words.
+ */
+export async function valuesFromRefuel(
+  db: Db,
+  scope: OrgScope,
+  key: { cohort: string; window: number; symptom: "both" | "stall" | "no-start" },
+  unit: "mi" | "km",
+  generations: { id: number; make: string; model: string; label: string }[],
+): Promise<KnownIssueFormValues | null> {
+  const symptoms: RefuelSymptom[] = key.symptom === "both" ? ["stall", "no-start"] : [key.symptom];
+  const analysis = await getRefuelAnalysis(db, scope, unitToMiles(key.window, unit), {
+    symptoms,
+  });
+  const c = analysis.cohorts.find((x) => x.key === key.cohort);
+  if (!c) return null;
+  const gen = generations.find(
+    (g) => g.make === c.make && g.model === c.model && g.label === c.generation,
+  );
+  const what = symptoms.map((s) => SYMPTOM_LABELS[s].toLowerCase()).join("s and ") + "s";
+  const summary =
+    `Started from the refuel analysis: ${c.observed} of ${c.events} ${what} on ${c.make} ${c.model} ${c.generation} ` +
+    `came within ${key.window} ${unit} of a fill-up, where chance predicts ${formatSig(c.expected)} ` +
+    `(${formatSig(c.ratio)}×, 95% ${formatInterval(c.lower, c.upper)}, one-sided p ${formatSig(c.pValue, 2)}; ` +
+    `${c.noFuelData} events had no fuel data).`;
+  return {
+    ...EMPTY,
+    title:
+      `${what[0]!.toUpperCase()}${what.slice(1)} soon after fill-ups on ${c.make} ${c.model} ${c.generation}`.slice(
+        0,
+        160,
+      ),
+    summary,
+    checked: [
+      `cohort:${c.make}|${c.model}|${gen?.id ?? "*"}`,
+      ...symptoms.map((s) => `symptom:${s}`),
+      "caution:fuel-vapour",
+    ],
+  };
+}

@@ -1,28 +1,427 @@
 import type { Metadata } from "next";
+import Link from "next/link";
+import { buttonClass, inputClass } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/page-header";
-import { PlannedScreen } from "@/components/ui/planned-screen";
+import { Panel } from "@/components/ui/panel";
+import { SinceFillUpChart, type SinceFillUpBar } from "@/components/refuel/since-fill-up-chart";
+import { getDb } from "@/db";
+import { getOrganisation } from "@/db/queries/organisations";
+import { getRefuelAnalysis, type RefuelRow, type RefuelSymptom } from "@/db/queries/refuel";
 import { requirePage } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/roles";
+import { formatInterval, formatSig, numberFormat } from "@/lib/format";
+import { RefuelPageQuery } from "@/lib/refuel-request";
+import { milesToUnit, unitToMiles } from "@/lib/units";
 
 export const metadata: Metadata = { title: "Refuel analysis" };
 
-export default async function RefuelPage() {
-  await requirePage("refuel:read");
+const SYMPTOM_CHOICES = [
+  ["both", "Stalls and no-starts"],
+  ["stall", "Stalls only"],
+  ["no-start", "No-starts only"],
+] as const;
+
+const cohortLabel = (key: string) => key.split("|").join(" ");
+
+export default async function RefuelPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
+  const auth = await requirePage("refuel:read");
+  const raw = Object.fromEntries(
+    Object.entries(await searchParams).filter(([, v]) => typeof v === "string"),
+  ) as Record<string, string>;
+  const parsed = RefuelPageQuery.safeParse(raw);
+  const q = parsed.success ? parsed.data : RefuelPageQuery.parse({});
+  const db = await getDb();
+  const org = await getOrganisation(db, auth);
+  const unit = org.distanceUnit;
+  const window = q.window ?? org.refuelWindow;
+  const windowMiles = unitToMiles(window, unit);
+  const symptoms: RefuelSymptom[] = q.symptom === "both" ? ["stall", "no-start"] : [q.symptom];
+  const binUnits = window <= 40 ? 5 : 10;
+  const maxUnits = Math.max(300, Math.ceil((window * 3) / binUnits) * binUnits);
+  const r = await getRefuelAnalysis(db, auth, windowMiles, {
+    symptoms,
+    cohort: q.cohort,
+    binMi: unitToMiles(binUnits, unit),
+    maxMi: unitToMiles(maxUnits, unit),
+  });
+  const canSeeVehicles = can(auth.role, "vehicles:read");
+  const canStartIssue = can(auth.role, "known-issues:manage");
+  const dist = (mi: number | null) =>
+    mi === null ? "—" : numberFormat(0).format(milesToUnit(mi, unit));
+  const what = q.symptom === "both" ? "stalls and no-starts" : `${q.symptom}s`;
+
+  const histogramCohort = r.cohorts.find((c) => c.key === r.histogram.cohort);
+  const bars: SinceFillUpBar[] = r.histogram.bins.map((b) => {
+    const from = Math.round(milesToUnit(b.fromMi, unit));
+    const to = b.toMi === null ? null : Math.round(milesToUnit(b.toMi, unit));
+    return {
+      bin: to === null ? `${from}+` : `${from}–${to}`,
+      observed: b.observed,
+      chance: b.chance,
+      isInWindow: from < window,
+    };
+  });
+  const histogramTitle =
+    r.histogram.cohort === "all"
+      ? `All vehicles: ${what} by ${unit} since the last fill-up`
+      : `${cohortLabel(r.histogram.cohort)}: ${what} by ${unit} since the last fill-up`;
+
+  const ratioCell = (row: RefuelRow) =>
+    `${formatSig(row.ratio)} (${formatInterval(row.lower, row.upper)})`;
+  const settings = (cohort?: string) =>
+    new URLSearchParams({
+      window: String(window),
+      symptom: q.symptom,
+      ...(cohort ? { cohort } : {}),
+    }).toString();
+
   return (
     <>
       <PageHeader
-        title={"Refuel analysis"}
-        description={"Stalls and no-starts that cluster shortly after fill-ups."}
+        title="Refuel analysis"
+        description={`Do ${what} come sooner after a fill-up than chance predicts? Per cohort and per vehicle, against each vehicle's own refuelling interval.`}
       />
-      <PlannedScreen
-        what={
-          "The post-refuel analysis will compare how many stalls happen within a few miles of a fill-up with what chance predicts from each vehicle's refuelling interval."
-        }
-        points={[
-          "Per vehicle and per cohort, with interval and p-value",
-          "Histogram of miles since the last fill-up",
-          "Vehicles with no fuel data counted and listed, never dropped silently",
-        ]}
-      />
+      {!parsed.success ? (
+        <p role="alert" className="mb-4 text-alarm-700">
+          {parsed.error.issues[0]?.message ?? "Invalid settings"}: showing the defaults.
+        </p>
+      ) : null}
+      <Panel>
+        <form
+          method="get"
+          className="flex flex-wrap items-end gap-4 text-sm"
+          aria-label="Analysis settings"
+        >
+          <label className="flex flex-col gap-1">
+            <span className="font-medium">Window after a fill-up ({unit})</span>
+            <input
+              name="window"
+              inputMode="decimal"
+              defaultValue={String(window)}
+              className={inputClass}
+            />
+          </label>
+          <label className="flex flex-col gap-1">
+            <span className="font-medium">Events</span>
+            <select name="symptom" defaultValue={q.symptom} className={inputClass}>
+              {SYMPTOM_CHOICES.map(([value, label]) => (
+                <option key={value} value={value}>
+                  {label}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="flex flex-col gap-1">
+            <span className="font-medium">Histogram of</span>
+            <select name="cohort" defaultValue={r.histogram.cohort} className={inputClass}>
+              <option value="all">All vehicles</option>
+              {r.cohorts.map((c) => (
+                <option key={c.key} value={c.key}>
+                  {cohortLabel(c.key)}
+                </option>
+              ))}
+            </select>
+          </label>
+          <button type="submit" className={buttonClass.primary}>
+            Analyse
+          </button>
+        </form>
+        <p className="mt-3 text-xs text-ink-soft">
+          Default window: the organisation&apos;s setting ({org.refuelWindow} {unit}). Counted:
+          repair orders with a {symptoms.join(" or ")} line and an odometer reading, one event per
+          order. Fault-code events are <strong>not</strong> counted: they carry a code, a time and
+          an odometer but no symptom, and a code alone does not say the engine stopped.
+          {r.eventsWithoutOdometer > 0
+            ? ` ${r.eventsWithoutOdometer} orders had no odometer reading and are left out.`
+            : ""}
+        </p>
+      </Panel>
+
+      <div className="mt-4 grid gap-4 sm:grid-cols-4">
+        {[
+          ["Events", String(r.fleet.events), `${what} with an odometer reading`],
+          [
+            `Within ${window} ${unit}`,
+            `${r.fleet.observed}`,
+            `chance predicts ${formatSig(r.fleet.expected)}`,
+          ],
+          [
+            "Observed ÷ chance",
+            formatSig(r.fleet.ratio),
+            `95% ${formatInterval(r.fleet.lower, r.fleet.upper)}, p ${formatSig(r.fleet.pValue, 2)}`,
+          ],
+          [
+            "No fuel data",
+            String(r.fleet.noFuelData),
+            `events with no fill-up in the previous ${dist(1000)} ${unit}`,
+          ],
+        ].map(([label, value, note]) => (
+          <Panel key={label}>
+            <p className="text-sm text-ink-soft">{label}</p>
+            <p className="text-2xl font-semibold tabular-nums">{value}</p>
+            <p className="text-xs text-ink-soft">{note}</p>
+          </Panel>
+        ))}
+      </div>
+
+      <Panel title="Cohorts" className="mt-4">
+        <p className="mb-3 text-sm text-ink-soft">
+          Strongest evidence first (one-sided exact p-value). Chance: each event is equally likely
+          anywhere between the fill-ups around it, so it falls within the window with probability
+          window ÷ that refuelling interval; the sum is what chance predicts (statistics.md §7).
+          Interval: exact Poisson (Garwood) limits of the observed count, divided by chance.
+        </p>
+        {r.cohorts.length === 0 ? (
+          <p className="text-sm text-ink-soft">No {what} with an odometer reading on record.</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="w-full text-left text-sm" data-testid="refuel-cohorts">
+              <caption className="sr-only">Post-refuel test per cohort</caption>
+              <thead className="text-ink-soft">
+                <tr>
+                  {[
+                    "Cohort",
+                    "Vehicles",
+                    "Events",
+                    `Within ${window} ${unit}`,
+                    "Chance predicts",
+                    "Observed ÷ chance (95%)",
+                    "p",
+                    "No fuel data",
+                    "Known issue",
+                  ].map((h, i) => (
+                    <th
+                      key={h}
+                      scope="col"
+                      className={`py-1 pr-3 font-medium ${i >= 1 && i <= 7 ? "text-right" : ""}`}
+                    >
+                      {h}
+                    </th>
+                  ))}
+                </tr>
+              </thead>
+              <tbody>
+                {r.cohorts.map((c) => {
+                  const isSelected = c.key === r.histogram.cohort;
+                  const startQuery = new URLSearchParams({
+                    source: "refuel",
+                    cohort: c.key,
+                    window: String(window),
+                    symptom: q.symptom,
+                  });
+                  return (
+                    <tr
+                      key={c.key}
+                      className={`border-t border-line/60 ${isSelected ? "bg-sea-50" : ""}`}
+                    >
+                      <th scope="row" className="py-1 pr-3 font-medium">
+                        <Link href={`/refuel?${settings(c.key)}`}>{cohortLabel(c.key)}</Link>
+                      </th>
+                      <td className="py-1 pr-3 text-right tabular-nums">{c.vehicles}</td>
+                      <td className="py-1 pr-3 text-right tabular-nums">{c.events}</td>
+                      <td className="py-1 pr-3 text-right font-semibold tabular-nums">
+                        {c.observed}
+                      </td>
+                      <td className="py-1 pr-3 text-right tabular-nums">{formatSig(c.expected)}</td>
+                      <td className="py-1 pr-3 text-right tabular-nums">{ratioCell(c)}</td>
+                      <td className="py-1 pr-3 text-right tabular-nums">
+                        {formatSig(c.pValue, 2)}
+                      </td>
+                      <td className="py-1 pr-3 text-right tabular-nums">{c.noFuelData}</td>
+                      <td className="py-1">
+                        {c.knownIssue ? (
+                          <Link href={`/known-issues/${c.knownIssue.id}`}>
+                            {c.knownIssue.title} ({c.knownIssue.state})
+                          </Link>
+                        ) : canStartIssue && c.pValue <= 0.05 && c.observed > 0 ? (
+                          <Link href={`/known-issues/new?${startQuery}`}>Start a known issue</Link>
+                        ) : (
+                          <span className="text-ink-soft">—</span>
+                        )}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </Panel>
+
+      <Panel title="Miles since the last fill-up" className="mt-4">
+        <p className="mb-2 text-sm text-ink-soft">
+          {histogramTitle}: {r.histogram.measured} events measured
+          {histogramCohort
+            ? `, ${histogramCohort.observed} within ${window} ${unit} where chance predicts ${formatSig(histogramCohort.expected)}`
+            : ""}
+          . A cluster shows as dark bars well above the chance bars at the left.
+        </p>
+        <SinceFillUpChart bars={bars} unit={unit} title={histogramTitle} />
+        <details className="mt-3 text-sm">
+          <summary className="cursor-pointer">Show the histogram as a table</summary>
+          <table className="mt-2 text-left text-sm">
+            <caption className="sr-only">{histogramTitle}</caption>
+            <thead className="text-ink-soft">
+              <tr>
+                <th scope="col" className="pr-4 font-medium">
+                  {unit} since fill-up
+                </th>
+                <th scope="col" className="pr-4 text-right font-medium">
+                  Events
+                </th>
+                <th scope="col" className="text-right font-medium">
+                  Chance predicts
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {bars.map((b) => (
+                <tr key={b.bin}>
+                  <td className="pr-4">{b.bin}</td>
+                  <td className="pr-4 text-right tabular-nums">{b.observed}</td>
+                  <td className="text-right tabular-nums">{formatSig(b.chance, 2)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </details>
+      </Panel>
+
+      <Panel title="Vehicles to look at first" className="mt-4">
+        <p className="mb-3 text-sm text-ink-soft">
+          Each vehicle tested against its own fill-ups, strongest evidence first. With few events
+          per vehicle a single p-value is weak on its own; read it with the cohort&apos;s.
+        </p>
+        {r.vehicles.length === 0 ? (
+          <p className="text-sm text-ink-soft">No vehicles with {what}.</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="w-full text-left text-sm" data-testid="refuel-vehicles">
+              <caption className="sr-only">Vehicles ranked by post-refuel evidence</caption>
+              <thead className="text-ink-soft">
+                <tr>
+                  {[
+                    "#",
+                    "Vehicle",
+                    "Cohort",
+                    "Typical refuelling interval",
+                    "Events",
+                    `Within ${window} ${unit}`,
+                    "Chance predicts",
+                    "p",
+                    `${unit} since fill-up, each event`,
+                  ].map((h, i) => (
+                    <th
+                      key={h}
+                      scope="col"
+                      className={`py-1 pr-3 font-medium ${i >= 3 && i <= 7 ? "text-right" : ""}`}
+                    >
+                      {h}
+                    </th>
+                  ))}
+                </tr>
+              </thead>
+              <tbody>
+                {r.vehicles.slice(0, 20).map((v, i) => {
+                  const name = v.unitNumber ?? v.vin ?? `#${v.vehicleId}`;
+                  return (
+                    <tr key={v.vehicleId} className="border-t border-line/60">
+                      <td className="py-1 pr-3 tabular-nums text-ink-soft">{i + 1}</td>
+                      <td className="py-1 pr-3 font-medium">
+                        {canSeeVehicles ? (
+                          <Link href={`/vehicles/${v.vehicleId}`}>{name}</Link>
+                        ) : (
+                          name
+                        )}
+                      </td>
+                      <td className="py-1 pr-3">
+                        {v.make} {v.model} {v.generation}
+                      </td>
+                      <td className="py-1 pr-3 text-right tabular-nums">
+                        {v.medianIntervalMi === null ? "—" : `${dist(v.medianIntervalMi)} ${unit}`}
+                      </td>
+                      <td className="py-1 pr-3 text-right tabular-nums">{v.events}</td>
+                      <td className="py-1 pr-3 text-right font-semibold tabular-nums">
+                        {v.observed}
+                      </td>
+                      <td className="py-1 pr-3 text-right tabular-nums">
+                        {formatSig(v.expected, 2)}
+                      </td>
+                      <td className="py-1 pr-3 text-right tabular-nums">
+                        {formatSig(v.pValue, 2)}
+                      </td>
+                      <td className="py-1 font-mono text-[13px]">
+                        {v.sinceMi.map((s) => (s === null ? "no fuel data" : dist(s))).join(", ")}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+            {r.vehicles.length > 20 ? (
+              <p className="mt-2 text-xs text-ink-soft">
+                The first 20 of {r.vehicles.length} vehicles with {what}.
+              </p>
+            ) : null}
+          </div>
+        )}
+      </Panel>
+
+      <Panel title="No fuel data" className="mt-4">
+        <p className="mb-3 text-sm text-ink-soft">
+          Events with no fill-up in the previous {dist(1000)} {unit} cannot be measured; they are
+          left out of the test and counted here, by vehicle. Missing fuel-card records make the test
+          weaker, not stronger.
+        </p>
+        {r.noFuelData.length === 0 ? (
+          <p className="text-sm text-ink-soft" data-testid="no-fuel-data">
+            None: every event had a fill-up before it.
+          </p>
+        ) : (
+          <table className="text-left text-sm" data-testid="no-fuel-data">
+            <caption className="sr-only">Vehicles with events but no fuel data</caption>
+            <thead className="text-ink-soft">
+              <tr>
+                <th scope="col" className="py-1 pr-4 font-medium">
+                  Vehicle
+                </th>
+                <th scope="col" className="py-1 pr-4 font-medium">
+                  Cohort
+                </th>
+                <th scope="col" className="py-1 pr-4 text-right font-medium">
+                  Events without fuel data
+                </th>
+                <th scope="col" className="py-1 text-right font-medium">
+                  Fill-ups on record
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {r.noFuelData.map((v) => {
+                const name = v.unitNumber ?? v.vin ?? `#${v.vehicleId}`;
+                return (
+                  <tr key={v.vehicleId} className="border-t border-line/60">
+                    <td className="py-1 pr-4">
+                      {canSeeVehicles ? (
+                        <Link href={`/vehicles/${v.vehicleId}`}>{name}</Link>
+                      ) : (
+                        name
+                      )}
+                    </td>
+                    <td className="py-1 pr-4">{v.cohort}</td>
+                    <td className="py-1 pr-4 text-right tabular-nums">{v.events}</td>
+                    <td className="py-1 text-right tabular-nums">{v.fillUps}</td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        )}
+      </Panel>
     </>
   );
 }

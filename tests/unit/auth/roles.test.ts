@@ -19,6 +19,7 @@ const EXPECTED: Record<(typeof ROLES)[number], Capability[]> = {
     "lookup:use",
     "findings:record",
     "stocking:read",
+    "comebacks:read",
     "parts:manage",
     "imports:read",
     "imports:write",

@@ -7,7 +7,8 @@ import { getDb } from "@/db";
 import { requirePage } from "@/lib/auth/guard";
 import { CellKeyQuery } from "@/lib/cell-request";
 import { createKnownIssueAction } from "../actions";
-import { EMPTY_VALUES, formChoices, valuesFromCell } from "../form-values";
+import { RefuelPageQuery } from "@/lib/refuel-request";
+import { EMPTY_VALUES, formChoices, valuesFromCell, valuesFromRefuel } from "../form-values";
 
 export const metadata: Metadata = { title: "New known issue" };
 
@@ -20,20 +21,38 @@ export default async function NewKnownIssuePage({
   const db = await getDb();
   const unit = auth.organisation.distanceUnit;
   const { choices, generations } = await formChoices(db, auth, unit);
-  const raw = await searchParams;
-  const fromCell = CellKeyQuery.safeParse(
-    Object.fromEntries(Object.entries(raw).filter(([, v]) => typeof v === "string")),
+  const raw = Object.fromEntries(
+    Object.entries(await searchParams).filter(([, v]) => typeof v === "string"),
   );
-  const prefilled = fromCell.success
-    ? await valuesFromCell(db, auth, fromCell.data, unit, generations)
-    : null;
+  const fromCell = CellKeyQuery.safeParse(raw);
+  const fromRefuel = RefuelPageQuery.safeParse(raw);
+  const prefilled =
+    raw.source === "refuel"
+      ? fromRefuel.success && fromRefuel.data.cohort && fromRefuel.data.window
+        ? await valuesFromRefuel(
+            db,
+            auth,
+            {
+              cohort: fromRefuel.data.cohort,
+              window: fromRefuel.data.window,
+              symptom: fromRefuel.data.symptom,
+            },
+            unit,
+            generations,
+          )
+        : null
+      : fromCell.success
+        ? await valuesFromCell(db, auth, fromCell.data, unit, generations)
+        : null;
   return (
     <>
       <PageHeader
         title="New known issue"
         description={
           prefilled
-            ? "Prefilled from a computed cell: check the cohort, mileage range and fault, then add the checks, the fix and the cautions."
+            ? raw.source === "refuel"
+              ? "Prefilled from the refuel analysis: check the cohort and symptoms, then add the mileage range, codes, checks, the fix and the cautions."
+              : "Prefilled from a computed cell: check the cohort, mileage range and fault, then add the checks, the fix and the cautions."
             : "Write up a pattern your team stands behind."
         }
       />

@@ -1,0 +1,81 @@
+import "server-only";
+import { sql } from "drizzle-orm";
+import type { Db } from "@/db";
+import { analyseComebacks, type ComebackLine } from "@/lib/comeback-rates";
+import { unitToMiles } from "@/lib/units";
+import { assertCan, type OrgScope } from "./scope";
+
+/**
+ * Comebacks of the organisation: every repair line with its codes, component, technician and
+ * vendor (the line's, else the order's), grouped by lib/comeback-rates.ts with the
+ * organisation's comeback window (comebackDays, comebackDistance in its unit).
+ */
+export async function getComebackReport(db: Db, scope: OrgScope) {
+  assertCan(scope, "comebacks:read");
+  const [org] = await db.all<{
+    comeback_days: number;
+    comeback_distance: number;
+    distance_unit: "mi" | "km";
+    as_of: string | null;
+  }>(sql`
+    select o.comeback_days, o.comeback_distance, o.distance_unit,
+           (select max(opened_on) from repair_lines where organisation_id = ${scope.organisationId}) as as_of
+      from organisations o where o.id = ${scope.organisationId}`);
+  if (!org) throw new Error("getComebackReport: organisation missing");
+  const rows = await db.all<{
+    id: number;
+    repair_order_id: number;
+    ro_number: string;
+    vehicle_id: number;
+    opened_on: string;
+    odometer_mi: number | null;
+    codes: string | null;
+    slug: string | null;
+    system: string | null;
+    name: string | null;
+    complaint: string | null;
+    cause: string | null;
+    correction: string | null;
+    technician: string | null;
+    vendor: string | null;
+  }>(sql`
+    select rl.id, rl.repair_order_id, ro.ro_number, rl.vehicle_id, rl.opened_on,
+           coalesce(rl.odometer_mi, ro.odometer_mi) as odometer_mi,
+           (select group_concat(c.dtc, ' ') from repair_line_codes c
+             where c.repair_line_id = rl.id and c.organisation_id = ${scope.organisationId}) as codes,
+           k.slug, k.system, k.name, rl.complaint, rl.cause, rl.correction, rl.technician,
+           coalesce(rl.vendor, ro.vendor) as vendor
+      from repair_lines rl
+      join repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
+      left join components k on k.id = rl.component_id
+     where rl.organisation_id = ${scope.organisationId}`);
+  const lines: ComebackLine[] = rows.map((r) => ({
+    id: Number(r.id),
+    repairOrderId: Number(r.repair_order_id),
+    roNumber: r.ro_number,
+    vehicleId: Number(r.vehicle_id),
+    openedOn: r.opened_on,
+    odometerMi: r.odometer_mi === null ? null : Number(r.odometer_mi),
+    dtcs: r.codes ? r.codes.split(" ").filter(Boolean) : [],
+    component: r.slug ? { slug: r.slug, system: r.system ?? "", name: r.name ?? "" } : null,
+    complaint: r.complaint,
+    cause: r.cause,
+    correction: r.correction,
+    technician: r.technician,
+    vendor: r.vendor,
+  }));
+  const window = {
+    days: Number(org.comeback_days),
+    miles: unitToMiles(Number(org.comeback_distance), org.distance_unit),
+  };
+  return {
+    ...analyseComebacks(lines, window, org.as_of),
+    settings: {
+      days: Number(org.comeback_days),
+      distance: Number(org.comeback_distance),
+      unit: org.distance_unit,
+    },
+  };
+}
+
+export type ComebackReport = Awaited<ReturnType<typeof getComebackReport>>;
