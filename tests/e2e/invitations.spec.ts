@@ -64,7 +64,7 @@ test("admin invites a technician by e-mail; the invitee creates an account and l
   await invitee.getByLabel(/^Password(?! again)/).fill("short");
   await invitee.getByLabel("Password again").fill("short");
   await invitee.getByRole("button", { name: "Create account and join" }).click();
-  await expect(invitee.getByText("At least 10 characters.")).toBeVisible();
+  await expect(invitee.locator("#password-error")).toHaveText("At least 10 characters.");
   await expect(invitee.getByLabel("Your name")).toHaveValue("Ottilie Marchbank");
   await invitee.getByLabel(/^Password(?! again)/).fill("bay-four-lift-2026");
   await invitee.getByLabel("Password again").fill("bay-four-lift-2026");
@@ -96,9 +96,14 @@ test("admin invites a technician by e-mail; the invitee creates an account and l
   expect(member?.role).toBe("technician");
 });
 
-test("viewer and technician are refused the members and mail pages (403)", async ({ page }) => {
+test("viewer and technician are refused the members and mail pages (403)", async ({
+  browser,
+  baseURL,
+}) => {
   for (const role of ["viewer", "technician"] as const) {
-    await page.context().clearCookies();
+    // A fresh browser per role: clearing cookies can race a session refresh still in flight.
+    const context = await browser.newContext({ baseURL });
+    const page = await context.newPage();
     await signIn(page, role);
     for (const path of ["/settings/members", "/settings/mail"]) {
       const res = await page.goto(path);
@@ -107,6 +112,7 @@ test("viewer and technician are refused the members and mail pages (403)", async
         "Your role cannot open this page",
       );
     }
+    await context.close();
   }
 });
 
