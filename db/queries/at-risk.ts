@@ -107,64 +107,71 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
   }
 
   // Signals: vehicles of the cohort inside the band or within one band before it, never
-  // repaired for the fault inside the band.
-  const signalRows = await db.all<{
-    id: number;
-    unit_number: string | null;
-    vin: string | null;
+  // repaired for the fault inside the band. One small query per signal cell (indexed), rather
+  // than one join that recomputes the fault's cost for every vehicle row.
+  const signalCells = await db.all<{
     make: string;
     model: string;
     label: string;
-    odometer: number;
     fault_key: string;
+    component_id: number | null;
+    dtc: string | null;
     band_from_mi: number;
     band_to_mi: number;
     fault_label: string | null;
-    avg_cost: number | null;
   }>(sql`
-    select v.id, v.unit_number, v.vin, v.make, v.model, c.cohort_label as label,
-           v.last_odometer_mi as odometer, c.fault_key, c.band_from_mi, c.band_to_mi,
-           coalesce(d.code || ' ' || d.description, k.system || ' → ' || k.name) as fault_label,
-           (select avg(coalesce(l.parts_cost_cents, 0) + coalesce(l.labor_cost_cents, 0))
-              from repair_lines l join vehicles v2 on v2.id = l.vehicle_id
-              left join generations g2 on g2.id = v2.generation_id
-             where l.organisation_id = ${scope.organisationId} and v2.make = c.make and v2.model = c.model
-               and coalesce(g2.label, cast(v2.model_year as text)) = c.cohort_label
-               and (l.component_id = c.component_id or exists (select 1 from repair_line_codes rc
-                    where rc.repair_line_id = l.id and rc.dtc = c.dtc))) as avg_cost
+    select c.make, c.model, c.cohort_label as label, c.fault_key, c.component_id, c.dtc,
+           c.band_from_mi, c.band_to_mi,
+           coalesce(d.code || ' ' || d.description, k.system || ' → ' || k.name) as fault_label
       from cell_stats c
-      join vehicles v on v.organisation_id = c.organisation_id and v.make = c.make and v.model = c.model
-      left join generations g on g.id = v.generation_id
       left join dtc_codes d on d.code = c.dtc
       left join components k on k.id = c.component_id
-     where c.organisation_id = ${scope.organisationId} and c.is_signal = 1 and c.fault_key <> 'all'
-       and coalesce(g.label, cast(v.model_year as text)) = c.cohort_label
-       and v.last_odometer_mi >= c.band_from_mi - ${bandWidthMi} and v.last_odometer_mi < c.band_to_mi
-       and not exists (select 1 from repair_lines l where l.vehicle_id = v.id
-             and l.odometer_mi >= c.band_from_mi and l.odometer_mi < c.band_to_mi
-             and (l.component_id = c.component_id or exists (select 1 from repair_line_codes rc
-                  where rc.repair_line_id = l.id and rc.dtc = c.dtc)))`);
-  for (const r of signalRows) {
-    if (seen.has(`${r.id}|${r.fault_key}`)) continue;
-    seen.add(`${r.id}|${r.fault_key}`);
-    const byBand = rates.get(`${r.make}|${r.model}|${r.label}|${r.fault_key}`) ?? new Map();
-    rows.push({
-      vehicleId: Number(r.id),
-      unitNumber: r.unit_number,
-      vin: r.vin,
-      cohort: `${r.make} ${r.model} ${r.label}`,
-      odometerMi: Number(r.odometer),
-      source: {
-        kind: "signal",
-        faultKey: r.fault_key,
-        label: r.fault_label ?? r.fault_key.replace(/^dtc:|^component:/, ""),
-      },
-      rangeFromMi: Number(r.band_from_mi),
-      rangeToMi: Number(r.band_to_mi),
-      toRangeMi: Math.max(0, Number(r.band_from_mi) - Number(r.odometer)),
-      expected: expectedFailures(Number(r.odometer), opts.nextMiles, bandWidthMi, byBand),
-      fixCostCents: r.avg_cost === null ? null : Math.round(Number(r.avg_cost)),
-    });
+     where c.organisation_id = ${scope.organisationId} and c.is_signal = 1 and c.fault_key <> 'all'`);
+  for (const c of signalCells) {
+    const fixes = (line: string) =>
+      c.component_id !== null
+        ? sql.raw(`${line}.component_id = ${Number(c.component_id)}`)
+        : sql`exists (select 1 from repair_line_codes rc where rc.repair_line_id = ${sql.raw(`${line}.id`)} and rc.dtc = ${c.dtc})`;
+    const cohort = sql`v.make = ${c.make} and v.model = ${c.model}
+      and coalesce((select label from generations g where g.id = v.generation_id), cast(v.model_year as text)) = ${c.label}`;
+    const [cost] = await db.all<{ avg: number | null }>(sql`
+      select avg(coalesce(l.parts_cost_cents, 0) + coalesce(l.labor_cost_cents, 0)) as avg
+        from repair_lines l join vehicles v on v.id = l.vehicle_id
+       where l.organisation_id = ${scope.organisationId} and ${cohort} and ${fixes("l")}`);
+    const vehiclesAtRisk = await db.all<{
+      id: number;
+      unit_number: string | null;
+      vin: string | null;
+      odometer: number;
+    }>(sql`
+      select v.id, v.unit_number, v.vin, v.last_odometer_mi as odometer from vehicles v
+       where v.organisation_id = ${scope.organisationId} and ${cohort}
+         and v.last_odometer_mi >= ${c.band_from_mi - bandWidthMi} and v.last_odometer_mi < ${c.band_to_mi}
+         and not exists (select 1 from repair_lines l where l.vehicle_id = v.id
+               and l.odometer_mi >= ${c.band_from_mi} and l.odometer_mi < ${c.band_to_mi} and ${fixes("l")})`);
+    const byBand = rates.get(`${c.make}|${c.model}|${c.label}|${c.fault_key}`) ?? new Map();
+    for (const r of vehiclesAtRisk) {
+      if (seen.has(`${r.id}|${c.fault_key}`)) continue;
+      seen.add(`${r.id}|${c.fault_key}`);
+      rows.push({
+        vehicleId: Number(r.id),
+        unitNumber: r.unit_number,
+        vin: r.vin,
+        cohort: `${c.make} ${c.model} ${c.label}`,
+        odometerMi: Number(r.odometer),
+        source: {
+          kind: "signal",
+          faultKey: c.fault_key,
+          label: c.fault_label ?? c.fault_key.replace(/^dtc:|^component:/, ""),
+        },
+        rangeFromMi: Number(c.band_from_mi),
+        rangeToMi: Number(c.band_to_mi),
+        toRangeMi: Math.max(0, Number(c.band_from_mi) - Number(r.odometer)),
+        expected: expectedFailures(Number(r.odometer), opts.nextMiles, bandWidthMi, byBand),
+        fixCostCents:
+          cost?.avg === null || cost?.avg === undefined ? null : Math.round(Number(cost.avg)),
+      });
+    }
   }
   rows.sort((a, b) => b.expected - a.expected || a.toRangeMi - b.toRangeMi);
   return { rows, labourPerHourCents: Math.round(labourPerHourCents), bandWidthMi };
