@@ -10,6 +10,9 @@ import { assertCan, type OrgScope } from "./scope";
  * vendor (the line's, else the order's), grouped by lib/comeback-rates.ts with the
  * organisation's comeback window (comebackDays, comebackDistance in its unit).
  */
+/** Repair lines per query page. */
+const PAGE = 5_000;
+
 export async function getComebackReport(db: Db, scope: OrgScope) {
   assertCan(scope, "comebacks:read");
   const [org] = await db.all<{
@@ -22,7 +25,8 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
            (select max(opened_on) from repair_lines where organisation_id = ${scope.organisationId}) as as_of
       from organisations o where o.id = ${scope.organisationId}`);
   if (!org) throw new Error("getComebackReport: organisation missing");
-  const rows = await db.all<{
+  // Paged by id: one response stays well under a libSQL server's response limit (10 MB).
+  type Row = {
     id: number;
     repair_order_id: number;
     ro_number: string;
@@ -38,7 +42,10 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
     correction: string | null;
     technician: string | null;
     vendor: string | null;
-  }>(sql`
+  };
+  const rows: Row[] = [];
+  for (let after = 0; ;) {
+    const page = await db.all<Row>(sql`
     select rl.id, rl.repair_order_id, ro.ro_number, rl.vehicle_id, rl.opened_on,
            coalesce(rl.odometer_mi, ro.odometer_mi) as odometer_mi,
            (select group_concat(c.dtc, ' ') from repair_line_codes c
@@ -48,7 +55,12 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
       from repair_lines rl
       join repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
       left join components k on k.id = rl.component_id
-     where rl.organisation_id = ${scope.organisationId}`);
+     where rl.organisation_id = ${scope.organisationId} and rl.id > ${after}
+     order by rl.id limit ${PAGE}`);
+    rows.push(...page);
+    if (page.length < PAGE) break;
+    after = Number(page[page.length - 1]!.id);
+  }
   const lines: ComebackLine[] = rows.map((r) => ({
     id: Number(r.id),
     repairOrderId: Number(r.repair_order_id),
