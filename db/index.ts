@@ -16,8 +16,8 @@ export function isFileUrl(url: string): boolean {
 /** An embedded replica: a local file kept in step with a libSQL server (see README). */
 export type ReplicaOptions = { syncUrl: string; syncIntervalSeconds?: number };
 
-/** Clients whose database engine runs in this process on a plain local file. */
-const localFileClients = new WeakSet<Client>();
+/** Clients whose database engine runs in this process on a plain local file, and its path. */
+const localFileClients = new WeakMap<Client, string>();
 
 /**
  * True when the database is a plain local file in this process, where connection PRAGMAs
@@ -26,6 +26,15 @@ const localFileClients = new WeakSet<Client>();
  */
 export function isLocalFileDatabase(db: Db | Client): boolean {
   return localFileClients.has("$client" in db ? db.$client : db);
+}
+
+/**
+ * The file of a local file database (as opened, relative to the working folder), so another
+ * thread can open its own connection to it; null for a server, a replica or `:memory:`.
+ */
+export function localDatabasePath(db: Db | Client): string | null {
+  const path = localFileClients.get("$client" in db ? db.$client : db);
+  return path && path !== ":memory:" ? path : null;
 }
 
 /**
@@ -43,8 +52,9 @@ export async function openDatabase(
   if (replica && !isFileUrl(url)) {
     throw new Error("An embedded replica needs a file: DATABASE_URL next to DATABASE_SYNC_URL.");
   }
+  let path = "";
   if (isFileUrl(url)) {
-    const path =
+    path =
       url
         .slice("file:".length)
         .replace(/^\/\/(localhost)?/, "")
@@ -68,7 +78,7 @@ export async function openDatabase(
   } else if (isFileUrl(url)) {
     await client.execute("PRAGMA journal_mode = WAL");
     await client.execute("PRAGMA synchronous = NORMAL");
-    localFileClients.add(client);
+    localFileClients.set(client, path);
   }
   return { client, db: drizzle(client, { schema }) };
 }

@@ -46,9 +46,11 @@ export async function runJob(
     return;
   }
   let hasLease = true;
+  let isHeartbeatHeld = false;
   let progress: number | undefined;
   const beat = setInterval(
     () => {
+      if (isHeartbeatHeld) return;
       extendLease(db, owner, leaseMs, progress)
         .then((ok) => {
           hasLease = ok;
@@ -65,6 +67,9 @@ export async function runJob(
       progress = p;
     },
     hasLease: () => hasLease,
+    holdHeartbeat: (isHeld) => {
+      isHeartbeatHeld = isHeld;
+    },
   };
   try {
     await handler.run(job.payload, ctx);
@@ -107,6 +112,7 @@ export async function startWorker(opts: WorkerOptions): Promise<void> {
           log,
           setProgress: () => {},
           hasLease: () => false,
+          holdHeartbeat: () => {},
         });
       }
       const job = await claimJob(opts.db, { workerId, leaseMs, jobId: opts.jobId });

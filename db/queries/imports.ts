@@ -3,6 +3,12 @@ import { desc, eq, sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import { columnMappings, importRejects, imports, users, type ImportKind } from "@/db/schema";
 import { enqueueJob } from "@/jobs/queue";
+import {
+  isRunInOneTransaction,
+  readRunCancel,
+  readRunProgress,
+  requestRunCancel,
+} from "@/jobs/import/run-files";
 import { recordAudit } from "./audit";
 import {
   assertCan,
@@ -126,14 +132,24 @@ export class DuplicateFileError extends ConflictError {
 
 export async function getImport(db: Db, scope: OrgScope, importId: number) {
   assertCan(scope, "imports:read");
-  const [row] = await db
-    .select(IMPORT_FIELDS)
+  const [found] = await db
+    .select({ ...IMPORT_FIELDS, storedPath: imports.storedPath })
     .from(imports)
     .leftJoin(users, eq(users.id, imports.createdBy))
     .where(orgWhere(imports, scope, eq(imports.id, importId)))
     .limit(1);
-  if (!row) throw new NotFoundError("No such import in this organisation.");
-  return { ...row, options: (row.options ?? null) as ImportOptions | null };
+  if (!found) throw new NotFoundError("No such import in this organisation.");
+  const { storedPath, ...row } = found;
+  // An import written in one transaction keeps its progress and a cancel request in side files
+  // until it commits (jobs/import/run-files.ts).
+  const live = row.status === "reading" ? readRunProgress(storedPath) : null;
+  const cancel = live && !row.cancelRequestedAt ? readRunCancel(storedPath) : null;
+  return {
+    ...row,
+    ...(live ?? {}),
+    cancelRequestedAt: row.cancelRequestedAt ?? cancel?.at ?? null,
+    options: (row.options ?? null) as ImportOptions | null,
+  };
 }
 
 /** The stored file of an import (for the preview and the reading step). */
@@ -224,6 +240,17 @@ export async function startImport(
 /** Asks the worker to stop; an import still waiting is cancelled at once. */
 export async function cancelImport(db: Db, scope: OrgScope, importId: number) {
   assertCan(scope, "imports:write");
+  const [running] = await db
+    .select({ status: imports.status, storedPath: imports.storedPath })
+    .from(imports)
+    .where(orgWhere(imports, scope, eq(imports.id, importId)));
+  if (running?.status === "reading" && isRunInOneTransaction(running.storedPath)) {
+    // The import holds the write lock until it ends: ask it through a side file (a write here
+    // would only wait for the lock). It rolls back, marks itself cancelled and records this in
+    // the audit log (jobs/import/run-import.ts).
+    requestRunCancel(running.storedPath, scope.userId);
+    return;
+  }
   await db.transaction(async (tx) => {
     const [row] = await tx
       .select({ status: imports.status })

@@ -14,7 +14,11 @@ function importIdOf(payload: unknown): number {
 /** Reads, checks, stages and applies one uploaded file (jobs/import/run-import.ts). */
 export const importJobHandler: JobHandler = {
   async run(payload, ctx) {
-    await runImport(ctx.db, importIdOf(payload), { hasLease: ctx.hasLease, log: ctx.log });
+    await runImport(ctx.db, importIdOf(payload), {
+      hasLease: ctx.hasLease,
+      holdHeartbeat: ctx.holdHeartbeat,
+      log: ctx.log,
+    });
   },
   async onGiveUp(job, reason, ctx) {
     await failImport(ctx.db, importIdOf(job.payload), reason);

@@ -12,6 +12,11 @@ export type JobContext = {
   setProgress: (percent: number) => void;
   /** False once another worker has taken the job over (this one must stop writing). */
   hasLease: () => boolean;
+  /**
+   * Pauses (true) or resumes (false) the lease heartbeat, while the job itself holds the
+   * database's write lock (a heartbeat would only wait for it).
+   */
+  holdHeartbeat: (isHeld: boolean) => void;
 };
 
 export type JobHandler = {

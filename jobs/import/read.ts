@@ -14,7 +14,7 @@ import {
   type TypedRow,
 } from "@/lib/import";
 import { PermanentJobError } from "../errors";
-import { fingerprint52, FingerprintSet } from "./fingerprint-set";
+import { FingerprintSet, fingerprintValues } from "./fingerprint-set";
 import { OdometerChecks } from "./odometer-checks";
 import { insertStatements, type SqlValue } from "./sql-literal";
 import { readingDate, STAGING } from "./stage-rows";
@@ -34,7 +34,7 @@ export type ReadResult = {
   isCancelled: boolean;
 };
 
-type Issue = {
+export type Issue = {
   rowNumber: number;
   severity: "rejected" | "warning";
   column: string;
@@ -51,8 +51,37 @@ export type ReadInput = {
   headers: string[];
   mapping: ColumnMapping;
   read: ReadOptions;
-  /** Called after each committed chunk; false stops the import (cancel, lost lease). */
+  /** Called after each written chunk; false stops the import (cancel, lost lease). */
   shouldContinue: () => Promise<boolean>;
+};
+
+/** What has been read so far (the import's progress). */
+export type ReadProgress = {
+  bytesRead: number;
+  rowsTotal: number;
+  rejected: number;
+  warnings: number;
+  duplicatesInFile: number;
+};
+
+/**
+ * Where checked rows go: the staging tables (readAndStage) or, on a local file database, the
+ * organisation's tables inside one write transaction (jobs/import/direct.ts).
+ */
+export type RowSink = {
+  /**
+   * A vehicle a row names that the organisation does not have yet (the row describes it):
+   * its new id, or null when the id is known only once the import is applied.
+   */
+  newVehicle(row: TypedRow<"repairs" | "faults" | "fuel">): number | null;
+  /** A checked row: its values in the kind's STAGING column order and its vehicle. */
+  add(rowNumber: number, values: SqlValue[], vehicleId: number | null): void;
+  /** Rows added since the last write. */
+  readonly pending: number;
+  /** Rows per write (default FLUSH_ROWS). */
+  readonly chunkRows?: number;
+  /** Writes what was added, the issues found, and the progress. */
+  write(issues: Issue[], progress: ReadProgress): Promise<void>;
 };
 
 /** A file error the user must fix (not worth a retry). */
@@ -110,11 +139,80 @@ function describeParseError(e: unknown, rowNumber: number): Error {
 }
 
 /**
- * Reads an import's file as a stream (never the whole file in memory), checks every row and
- * writes the good ones to the staging table in committed chunks with the import's progress.
+ * Writes checked rows to the staging table in committed chunks with the import's progress.
  * Nothing reaches the organisation's data here; applyStagedImport does that atomically.
  */
-export async function readAndStage(db: Db, input: ReadInput): Promise<ReadResult> {
+export function stagingSink(db: Db, input: ReadInput): RowSink {
+  const layout = STAGING[input.kind];
+  const hasVehicleColumn = needsVehicleKey(input.kind) && input.kind !== "vehicles";
+  const stageColumns = ["organisation_id", "import_id", "row_number", ...layout.columns];
+  if (hasVehicleColumn) stageColumns.push("vehicle_id");
+  let rows: SqlValue[][] = [];
+  return {
+    newVehicle: () => null,
+    add(rowNumber, values, vehicleId) {
+      const staged = [input.organisationId, input.importId, rowNumber, ...values];
+      if (hasVehicleColumn) staged.push(vehicleId);
+      rows.push(staged);
+    },
+    get pending() {
+      return rows.length;
+    },
+    async write(issues, p) {
+      const statements = insertStatements(layout.table, stageColumns, rows);
+      statements.push(
+        ...rejectStatements(input, issues),
+        `update imports set bytes_read = ${p.bytesRead}, rows_total = ${p.rowsTotal}, rows_rejected = ${p.rejected},
+           rows_warning = ${p.warnings}, rows_duplicate = ${p.duplicatesInFile} where id = ${input.importId}`,
+      );
+      rows = [];
+      if (isLocalFileDatabase(db)) {
+        const tx = await db.$client.transaction("write");
+        try {
+          await tx.executeMultiple(statements.join(";\n"));
+          await tx.commit();
+        } finally {
+          tx.close();
+        }
+      } else {
+        // On a libSQL server, one atomic batch: one round trip, and no interactive transaction
+        // whose write lock the server keeps for seconds if this worker dies in the middle.
+        await db.$client.batch(statements, "write");
+      }
+    },
+  };
+}
+
+/** INSERTs of an import's rejected rows and warnings into import_rejects. */
+export function rejectStatements(
+  input: { organisationId: number; importId: number },
+  issues: Issue[],
+): string[] {
+  return insertStatements(
+    "import_rejects",
+    ["organisation_id", "import_id", "row_number", "severity", "column", "reason", "raw"],
+    issues.map((i) => [
+      input.organisationId,
+      input.importId,
+      i.rowNumber,
+      i.severity,
+      i.column,
+      i.reason,
+      i.raw,
+    ]),
+  );
+}
+
+/** Reads and checks every row, and stages the good ones (see stagingSink). */
+export function readAndStage(db: Db, input: ReadInput): Promise<ReadResult> {
+  return readRows(db, input, stagingSink(db, input));
+}
+
+/**
+ * Reads an import's file as a stream (never the whole file in memory), checks every row and
+ * hands the good ones to `sink`, which writes them in chunks with the import's progress.
+ */
+export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise<ReadResult> {
   const { kind } = input;
   const layout = STAGING[kind];
   const reader = createRowReader(kind, input.headers, input.mapping, input.read);
@@ -169,49 +267,16 @@ export async function readAndStage(db: Db, input: ReadInput): Promise<ReadResult
   let duplicatesInFile = 0;
   let bytesRead = 0;
   const seen = new FingerprintSet();
-  let pendingRows: SqlValue[][] = [];
   let pendingIssues: Issue[] = [];
+  const chunkRows = sink.chunkRows ?? FLUSH_ROWS;
   // Kinds whose rows name a vehicle that must already exist or be described by the row.
   const hasVehicleColumn = needsVehicleKey(kind) && kind !== "vehicles";
-  const stageColumns = ["organisation_id", "import_id", "row_number", ...layout.columns];
-  if (hasVehicleColumn) stageColumns.push("vehicle_id");
 
   const flush = async (): Promise<boolean> => {
-    const statements = insertStatements(layout.table, stageColumns, pendingRows);
-    const issueRows = pendingIssues.map((i) => [
-      input.organisationId,
-      input.importId,
-      i.rowNumber,
-      i.severity,
-      i.column,
-      i.reason,
-      i.raw,
-    ]);
-    statements.push(
-      ...insertStatements(
-        "import_rejects",
-        ["organisation_id", "import_id", "row_number", "severity", "column", "reason", "raw"],
-        issueRows,
-      ),
-      `update imports set bytes_read = ${bytesRead}, rows_total = ${rowsTotal}, rows_rejected = ${rejected},
-         rows_warning = ${warnings}, rows_duplicate = ${duplicatesInFile} where id = ${input.importId}`,
-    );
-    if (isLocalFileDatabase(db)) {
-      const tx = await db.$client.transaction("write");
-      try {
-        await tx.executeMultiple(statements.join(";\n"));
-        await tx.commit();
-      } finally {
-        tx.close();
-      }
-    } else {
-      // On a libSQL server, one atomic batch: one round trip, and no interactive transaction
-      // whose write lock the server keeps for seconds if this worker dies in the middle.
-      await db.$client.batch(statements, "write");
-    }
-    staged += pendingRows.length;
-    pendingRows = [];
+    staged += sink.pending;
+    const issues = pendingIssues;
     pendingIssues = [];
+    await sink.write(issues, { bytesRead, rowsTotal, rejected, warnings, duplicatesInFile });
     return input.shouldContinue();
   };
 
@@ -290,9 +355,10 @@ export async function readAndStage(db: Db, input: ReadInput): Promise<ReadResult
             null;
           if (!isKnown) {
             if (r.make && r.model && r.modelYear) {
-              // Added by this import: its id is known only once the import is applied.
-              if (r.vin) knownVins.set(r.vin, null);
-              if (r.unitNumber) knownUnits.set(r.unitNumber, null);
+              // Added by this import (the sink gives its id, or null until it is applied).
+              vehicleId = sink.newVehicle(r);
+              if (r.vin) knownVins.set(r.vin, vehicleId);
+              if (r.unitNumber) knownUnits.set(r.unitNumber, vehicleId);
             } else {
               isOk = false;
               rejected++;
@@ -313,18 +379,12 @@ export async function readAndStage(db: Db, input: ReadInput): Promise<ReadResult
         if (isOk) {
           const values = layout.toValues(row as never, componentOf);
           if (kind === "repairs") {
-            let key = "";
-            for (const v of values) key += `${v ?? ""}\u0001`;
-            if (!seen.add(fingerprint52(key))) {
+            if (!seen.add(fingerprintValues(values))) {
               isOk = false;
               duplicatesInFile++;
             }
           }
-          if (isOk) {
-            const staged = [input.organisationId, input.importId, rowNumber, ...values];
-            if (hasVehicleColumn) staged.push(vehicleId);
-            pendingRows.push(staged);
-          }
+          if (isOk) sink.add(rowNumber, values, vehicleId);
         }
         if (isOk) {
           if (rowWarnings.length) {
@@ -336,7 +396,7 @@ export async function readAndStage(db: Db, input: ReadInput): Promise<ReadResult
           }
         }
       }
-      if (pendingRows.length >= FLUSH_ROWS || pendingIssues.length >= FLUSH_ROWS) {
+      if (sink.pending >= chunkRows || pendingIssues.length >= FLUSH_ROWS) {
         if (!(await flush())) {
           parser.destroy();
           return { rowsTotal, staged, rejected, warnings, duplicatesInFile, isCancelled: true };

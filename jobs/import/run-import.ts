@@ -1,15 +1,20 @@
 import { eq } from "drizzle-orm";
-import type { Db } from "@/db";
-import { imports } from "@/db/schema";
+import { localDatabasePath, type Db } from "@/db";
+import { auditLog, imports } from "@/db/schema";
 import type { ImportOptions } from "@/db/queries/imports";
 import { autoMapHeaders, type ColumnMapping } from "@/lib/import";
 import { PermanentJobError } from "../errors";
 import { applyStagedImport, clearStagedRows } from "./apply";
-import { readAndStage } from "./read";
+import { isDirectKind, readAndWrite } from "./direct";
+import { readAndStage, type ReadInput } from "./read";
+import { hasRunCancel, readRunCancel, removeRunFiles, writeRunProgress } from "./run-files";
+import { ImportWriter } from "./writer";
 
 export type RunImportHooks = {
   /** False once the job's lease was lost: stop writing at the next chunk. */
   hasLease?: () => boolean;
+  /** Pauses the job's lease heartbeat while the import holds the write lock (see direct.ts). */
+  holdHeartbeat?: (isHeld: boolean) => void;
   log?: (msg: string) => void;
 };
 
@@ -79,8 +84,7 @@ export async function runImport(
     ...mappingToIndexes(options.headers, options.mapping),
   };
 
-  const readStarted = performance.now();
-  const result = await readAndStage(db, {
+  const input: ReadInput = {
     kind: imp.kind,
     organisationId: imp.organisationId,
     importId,
@@ -98,7 +102,15 @@ export async function runImport(
         .where(eq(imports.id, importId));
       return !row?.cancel;
     },
-  });
+  };
+  const file = localDatabasePath(db);
+  if (file && isDirectKind(imp.kind)) {
+    await runInOneTransaction(db, file, { ...input, kind: imp.kind }, imp.storedPath, hooks);
+    return;
+  }
+
+  const readStarted = performance.now();
+  const result = await readAndStage(db, input);
 
   if (result.isCancelled) {
     await clearStagedRows(db, imp.kind, importId);
@@ -121,6 +133,76 @@ export async function runImport(
   hooks.log?.(
     `import ${importId}: read and staged ${result.rowsTotal} rows in ${secs(readStarted, applyStarted)} s, applied in ${secs(applyStarted, performance.now())} s`,
   );
+}
+
+/**
+ * The direct path on a local database file (jobs/import/direct.ts): one write transaction for
+ * the whole import, held by a writer thread. While it is open the import's progress and a
+ * cancel request travel in side files (run-files.ts), and the lease heartbeat is paused: no
+ * other worker can claim the job while the write lock is held, and if this process dies the
+ * transaction is rolled back and the lock released with it.
+ */
+async function runInOneTransaction(
+  db: Db,
+  file: string,
+  input: ReadInput & { kind: "repairs" | "faults" | "fuel" },
+  storedPath: string,
+  hooks: RunImportHooks,
+): Promise<void> {
+  const { importId } = input;
+  const started = performance.now();
+  hooks.holdHeartbeat?.(true);
+  let writer: ImportWriter | null = null;
+  try {
+    // The progress file exists for the whole run: it tells getImport and cancelImport that
+    // this import holds (or is about to hold) the write lock.
+    writeRunProgress(storedPath, {
+      bytesRead: 0,
+      rowsTotal: 0,
+      rowsRejected: 0,
+      rowsWarning: 0,
+      rowsDuplicate: 0,
+    });
+    writer = await ImportWriter.open(file);
+    const result = await readAndWrite(db, writer, {
+      ...input,
+      storedPath,
+      shouldContinue: async () => !hasRunCancel(storedPath),
+    });
+    if (result.isCancelled) {
+      await writer.rollback();
+      writer = null;
+      hooks.holdHeartbeat?.(false);
+      const request = readRunCancel(storedPath);
+      await db.batch([
+        db
+          .update(imports)
+          .set({
+            status: "cancelled",
+            cancelRequestedAt: request?.at ?? now(),
+            finishedAt: now(),
+          })
+          .where(eq(imports.id, importId)),
+        db.insert(auditLog).values({
+          organisationId: input.organisationId,
+          userId: request?.userId ?? null,
+          action: "import.cancel",
+          entity: "import",
+          entityId: String(importId),
+        }),
+      ]);
+      hooks.log?.(`import ${importId} cancelled after ${result.rowsTotal} rows`);
+      return;
+    }
+    writer = null; // committed
+    hooks.log?.(
+      `import ${importId}: read and wrote ${result.rowsTotal} rows in one transaction in ${((performance.now() - started) / 1000).toFixed(1)} s (writer busy, ms: ${JSON.stringify(result.writerBusyMs)})`,
+    );
+  } finally {
+    await writer?.rollback();
+    hooks.holdHeartbeat?.(false);
+    removeRunFiles(storedPath);
+  }
 }
 
 /** Marks an import failed for good, with a message for the user; its file is kept. */
