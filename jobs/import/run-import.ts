@@ -123,12 +123,20 @@ export async function runImport(
   }
   await db.update(imports).set({ status: "applying" }).where(eq(imports.id, importId));
   const applyStarted = performance.now();
-  await applyStagedImport(db, {
-    kind: imp.kind,
-    organisationId: imp.organisationId,
-    importId,
-    stagedRows: result.staged,
-  });
+  // The apply is one atomic batch that holds the write lock: the lease heartbeat would only
+  // wait for it (and a libSQL server rolls back a long write transaction that another client
+  // waits behind), so it pauses until the batch is done.
+  hooks.holdHeartbeat?.(true);
+  try {
+    await applyStagedImport(db, {
+      kind: imp.kind,
+      organisationId: imp.organisationId,
+      importId,
+      stagedRows: result.staged,
+    });
+  } finally {
+    hooks.holdHeartbeat?.(false);
+  }
   const secs = (a: number, b: number) => ((b - a) / 1000).toFixed(1);
   hooks.log?.(
     `import ${importId}: read and staged ${result.rowsTotal} rows in ${secs(readStarted, applyStarted)} s, applied in ${secs(applyStarted, performance.now())} s`,

@@ -1,4 +1,5 @@
-import type { Db } from "@/db";
+import { localDatabasePath, type Db } from "@/db";
+import { readInThread } from "../db-thread";
 import { COHORT_LABEL_SQL, cohortKey } from "./cohorts";
 
 export type EventCount = {
@@ -14,20 +15,43 @@ export type EventCount = {
 
 export type EventCounts = { counts: EventCount[]; linesWithoutOdometer: number };
 
+type Row = Record<string, unknown>;
+
+const MISSING_SQL = `select count(*) as n from repair_lines where organisation_id = ?1 and odometer_mi is null`;
+
 /**
- * Repairs per cohort × mileage band × fault, counted by the database (GROUP BY), not row by row
- * in JavaScript. An event is a repair line: for a DTC, a line that lists it; for a component, a
- * line on it; a vehicle back for the same fault counts again (recurrences are the point). Lines
- * without an odometer reading cannot be placed in a band and are counted separately.
+ * Repairs per cohort × mileage band × fault. An event is a repair line: for a DTC, a line that
+ * lists it; for a component, a line on it; a vehicle back for the same fault counts again
+ * (recurrences are the point). Lines without an odometer reading cannot be placed in a band and
+ * are counted separately. Two ways to the same numbers (a test holds them equal): on a local
+ * file, countEventsPerVehicle, on a second core; on a libSQL server, countEventsByCohort.
  */
-export async function countEvents(
+export function countEvents(
+  db: Db,
+  organisationId: number,
+  bandWidthMi: number,
+): Promise<EventCounts> {
+  const file = localDatabasePath(db);
+  return file
+    ? countEventsPerVehicle(db, file, organisationId, bandWidthMi)
+    : countEventsByCohort(db, organisationId, bandWidthMi);
+}
+
+/**
+ * The database groups by cohort (joined from each line's vehicle) × band × fault and counts
+ * distinct vehicles itself: one batch, and answers as small as the cohort table (a libSQL
+ * server refuses answers over 10 MB). Groups are named by position: `label` in a GROUP BY
+ * would be the generations table's column, not the cohort label, and would merge the model
+ * years of vehicles without a generation.
+ */
+export async function countEventsByCohort(
   db: Db,
   organisationId: number,
   bandWidthMi: number,
 ): Promise<EventCounts> {
   const cohort = `v.make, v.model, ${COHORT_LABEL_SQL} as label, cast(l.odometer_mi / ?2 as integer) as band`;
-  const vehicle = (line: string) =>
-    `join vehicles v on v.id = ${line}.vehicle_id left join generations g on g.id = v.generation_id`;
+  const vehicle = `join vehicles v on v.id = l.vehicle_id left join generations g on g.id = v.generation_id`;
+  const args = [organisationId, bandWidthMi];
   const [byDtc, byComponent, all, missing] = await db.$client.batch(
     [
       {
@@ -35,35 +59,32 @@ export async function countEvents(
                      count(*) as events, count(distinct l.vehicle_id) as affected
                 from repair_line_codes c
                 join repair_lines l on l.id = c.repair_line_id
-                ${vehicle("l")}
+                ${vehicle}
                where c.organisation_id = ?1 and l.odometer_mi is not null
-               group by v.make, v.model, label, band, c.dtc`,
-        args: [organisationId, bandWidthMi],
+               group by 1, 2, 3, 4, c.dtc`,
+        args,
       },
       {
         sql: `select ${cohort}, 'component:' || k.slug as fault_key, null as dtc, l.component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
                 from repair_lines l
                 join components k on k.id = l.component_id
-                ${vehicle("l")}
+                ${vehicle}
                where l.organisation_id = ?1 and l.odometer_mi is not null
-               group by v.make, v.model, label, band, l.component_id`,
-        args: [organisationId, bandWidthMi],
+               group by 1, 2, 3, 4, l.component_id`,
+        args,
       },
       {
         sql: `select ${cohort}, 'all' as fault_key, null as dtc, null as component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
                 from repair_lines l
-                ${vehicle("l")}
+                ${vehicle}
                where l.organisation_id = ?1 and l.odometer_mi is not null
                  and (l.component_id is not null or l.dtc_codes is not null)
-               group by v.make, v.model, label, band`,
-        args: [organisationId, bandWidthMi],
+               group by 1, 2, 3, 4`,
+        args,
       },
-      {
-        sql: `select count(*) as n from repair_lines where organisation_id = ?1 and odometer_mi is null`,
-        args: [organisationId],
-      },
+      { sql: MISSING_SQL, args: [organisationId] },
     ],
     "read",
   );
@@ -82,4 +103,119 @@ export async function countEvents(
     }
   }
   return { counts, linesWithoutOdometer: Number(missing?.rows[0]?.n ?? 0) };
+}
+
+/**
+ * The database counts per vehicle × band × fault, in a reader thread on a second core while the
+ * recompute works out exposure on this one. A cohort is a function of the vehicle, so these
+ * per-vehicle groups (tens of thousands, not a million lines) add up here to the cohort's
+ * events, and their number is the cohort's vehicles affected. That spares the database a join
+ * to vehicles and generations and a distinct count for every line, and components and "all
+ * faults" come from one pass over the lines.
+ */
+export async function countEventsPerVehicle(
+  db: Db,
+  file: string,
+  organisationId: number,
+  bandWidthMi: number,
+): Promise<EventCounts> {
+  const band = "cast(l.odometer_mi / ?2 as integer)";
+  const args = [organisationId, bandWidthMi];
+  const inThread = readInThread(file, [
+    {
+      sql: `select c.vehicle_id, ${band} as band, c.dtc, count(*) as n
+              from repair_line_codes c
+              join repair_lines l on l.id = c.repair_line_id
+             where c.organisation_id = ?1 and l.odometer_mi is not null
+             group by c.vehicle_id, band, c.dtc`,
+      args,
+    },
+    {
+      sql: `select l.vehicle_id, ${band} as band, l.component_id, l.dtc_codes is not null as has_dtc,
+                   count(*) as n
+              from repair_lines l
+             where l.organisation_id = ?1 and l.odometer_mi is not null
+               and (l.component_id is not null or l.dtc_codes is not null)
+             group by l.vehicle_id, band, l.component_id, has_dtc`,
+      args,
+    },
+  ]);
+  inThread.catch(() => {}); // awaited below
+  const [vehicleRows, componentRows, missingRows] = (
+    await db.$client.batch(
+      [
+        {
+          sql: `select v.id, v.make, v.model, ${COHORT_LABEL_SQL} as label
+                  from vehicles v left join generations g on g.id = v.generation_id
+                 where v.organisation_id = ?1`,
+          args: [organisationId],
+        },
+        { sql: "select id, slug from components", args: [] },
+        { sql: MISSING_SQL, args: [organisationId] },
+      ],
+      "read",
+    )
+  ).map((rs) => rs.rows as Row[]) as [Row[], Row[], Row[]];
+  const [dtcRows = [], lineRows = []] = await inThread;
+
+  const cohortOf = new Map<number, string>();
+  for (const v of vehicleRows) {
+    cohortOf.set(Number(v.id), cohortKey(String(v.make), String(v.model), String(v.label)));
+  }
+  const slugOf = new Map(componentRows.map((c) => [Number(c.id), String(c.slug)]));
+
+  type Tally = EventCount & { seen: Set<number> };
+  const tallies = new Map<string, Tally>();
+  const add = (
+    vehicleId: number,
+    bandIndex: number,
+    fault: Pick<EventCount, "faultKey" | "dtc" | "componentId">,
+    n: number,
+  ) => {
+    const cohort = cohortOf.get(vehicleId);
+    if (cohort === undefined) return;
+    const key = `${cohort}|${bandIndex}|${fault.faultKey}`;
+    let t = tallies.get(key);
+    if (!t) {
+      t = {
+        cohortKey: cohort,
+        band: bandIndex,
+        ...fault,
+        events: 0,
+        vehiclesAffected: 0,
+        seen: new Set(),
+      };
+      tallies.set(key, t);
+    }
+    t.events += n;
+    if (!t.seen.has(vehicleId)) {
+      t.seen.add(vehicleId);
+      t.vehiclesAffected++;
+    }
+  };
+  for (const r of dtcRows) {
+    const dtc = String(r.dtc);
+    add(
+      Number(r.vehicle_id),
+      Number(r.band),
+      { faultKey: `dtc:${dtc}`, dtc, componentId: null },
+      Number(r.n),
+    );
+  }
+  const all = { faultKey: "all", dtc: null, componentId: null };
+  for (const r of lineRows) {
+    const vehicleId = Number(r.vehicle_id);
+    const bandIndex = Number(r.band);
+    const n = Number(r.n);
+    if (r.component_id !== null) {
+      const componentId = Number(r.component_id);
+      const slug = slugOf.get(componentId);
+      if (slug !== undefined) {
+        add(vehicleId, bandIndex, { faultKey: `component:${slug}`, dtc: null, componentId }, n);
+      }
+    }
+    add(vehicleId, bandIndex, all, n);
+  }
+  const counts = [...tallies.values()].map(({ seen: _seen, ...count }) => count);
+  return { counts, linesWithoutOdometer: Number(missingRows[0]?.n ?? 0) };
 }

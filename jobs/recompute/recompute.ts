@@ -105,8 +105,15 @@ export async function recomputeOrganisation(
   const bandWidthMi = unitToMiles(org.bandWidth, org.distanceUnit);
   const minExposureMi = unitToMiles(org.minExposure, org.distanceUnit);
 
-  const exposure = await computeExposure(db, organisationId, bandWidthMi);
-  const { counts, linesWithoutOdometer } = await countEvents(db, organisationId, bandWidthMi);
+  // Events are counted (in a reader thread on a local file) while exposure is worked out here.
+  const at = () => ((performance.now() - started) / 1000).toFixed(1);
+  const phases: string[] = [];
+  const [{ counts, linesWithoutOdometer }, exposure] = await Promise.all([
+    countEvents(db, organisationId, bandWidthMi).finally(() => phases.push(`events ${at()} s`)),
+    computeExposure(db, organisationId, bandWidthMi).finally(() =>
+      phases.push(`exposure ${at()} s`),
+    ),
+  ]);
   const cells = computeCells({
     cohorts: exposure.cohorts,
     exposure: exposure.byCohortBand,
@@ -116,6 +123,7 @@ export async function recomputeOrganisation(
     minExposureMi,
   });
   const signals = cells.filter((c) => c.isSignal);
+  phases.push(`statistics ${at()} s`);
 
   const tx = await db.$client.transaction("write");
   let runId: number;
@@ -182,7 +190,8 @@ export async function recomputeOrganisation(
   const seconds = (performance.now() - started) / 1000;
   log(
     `recompute for organisation ${organisationId}: ${cells.length} cells, ${signals.length} signals, ` +
-      `${exposure.readingsIgnored} of ${exposure.readings} odometer readings ignored, ${seconds.toFixed(1)} s`,
+      `${exposure.readingsIgnored} of ${exposure.readings} odometer readings ignored, ${seconds.toFixed(1)} s ` +
+      `(done at: ${phases.join(", ")}, written ${seconds.toFixed(1)} s)`,
   );
   return {
     runId,

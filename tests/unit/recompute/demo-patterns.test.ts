@@ -5,6 +5,8 @@ import { getRefuelAnalysis } from "@/db/queries/refuel";
 import type { OrgScope } from "@/db/queries/scope";
 import { findOrganisationBySlug } from "@/db/queries/system";
 import { loadDemo } from "@/db/seed/demo";
+import { localDatabasePath } from "@/db";
+import { countEventsByCohort, countEventsPerVehicle } from "@/jobs/recompute/events";
 import { recomputeOrganisation } from "@/jobs/recompute/recompute";
 import { createTestDb } from "../../support/test-db";
 
@@ -81,5 +83,30 @@ describe("the demo's planted patterns come out on top", () => {
     expect(cells.some((c) => c.model === "Wren" && /accessory-fuses|harness/.test(fault(c)))).toBe(
       true,
     );
+  });
+});
+
+describe("event counts", () => {
+  test("per-vehicle groups added up in JavaScript equal the database's GROUP BY per cohort with distinct vehicles", async () => {
+    const file = localDatabasePath(db);
+    for (const slug of ["tidewater", "northgate"]) {
+      const org = scopes[slug]!.organisationId;
+      const byCohort = await countEventsByCohort(db, org, 25_000);
+      const perVehicle = file ? await countEventsPerVehicle(db, file, org, 25_000) : byCohort;
+      const lines = (r: typeof byCohort) =>
+        r.counts
+          .map((c) => `${c.cohortKey}|${c.band}|${c.faultKey}|${c.events}|${c.vehiclesAffected}`)
+          .sort();
+      expect(lines(byCohort).length).toBeGreaterThan(100);
+      expect(lines(perVehicle)).toEqual(lines(byCohort));
+      expect(perVehicle.linesWithoutOdometer).toBe(byCohort.linesWithoutOdometer);
+      // The cohort and the fault columns come out the same way too.
+      const byKey = new Map(
+        byCohort.counts.map((c) => [`${c.cohortKey}|${c.band}|${c.faultKey}`, c]),
+      );
+      for (const c of perVehicle.counts) {
+        expect(c).toEqual(byKey.get(`${c.cohortKey}|${c.band}|${c.faultKey}`));
+      }
+    }
   });
 });

@@ -1,11 +1,17 @@
-// The import's writer: a worker thread that holds ONE write transaction on a local database
-// file for the whole import, so parsing and checking (main thread) and writing (here) run on
-// two cores at once, and the import lands whole or not at all (a killed process never commits).
+// A connection to a local database file in a worker thread, holding one transaction, so that
+// database work runs on a second core beside the main thread:
+// - an import's writer (jobs/import/writer.ts): ONE write transaction for the whole import,
+//   so parsing and checking (main thread) and writing (here) overlap, and the import lands
+//   whole or not at all (a killed process never commits);
+// - a reader (readInThread in jobs/db-thread.ts): a few queries on one read snapshot while the main
+//   thread does other work (the recompute counts events while it works out exposure).
 //
 // Plain JavaScript on purpose: it is started by path from both the Next.js server and the
 // command line, so it must not need a TypeScript loader or a bundler. It talks in messages:
-//   { type: "open", path, cacheKb }  → { type: "opened" }      BEGIN IMMEDIATE on the file
-//   { type: "query", id, sql }        → { type: "rows", id, rows }
+//   { type: "open", path, cacheKb, mode }
+//                                     → { type: "opened" }: BEGIN IMMEDIATE (mode "write") or
+//                                       a read transaction (mode "read") on the file
+//   { type: "query", id, sql, args? } → { type: "rows", id, rows }
 //   { type: "exec", sql }             → nothing (an error is reported and ends the thread)
 //   { type: "insert", table, columns, values, where?, onConflict? }
 //                                     → nothing; values is flat, row after row; see insertRows
@@ -17,7 +23,7 @@
 import { parentPort } from "node:worker_threads";
 import Database from "libsql";
 
-if (!parentPort) throw new Error("writer-thread.mjs runs as a worker thread");
+if (!parentPort) throw new Error("db-worker.mjs runs as a worker thread");
 const port = parentPort;
 let db = null;
 let isOpen = false;
@@ -104,6 +110,15 @@ port.on("message", (msg) => {
     switch (msg.type) {
       case "open":
         db = new Database(msg.path);
+        if (msg.mode === "read") {
+          db.exec("pragma busy_timeout = 10000");
+          // A read transaction: every query sees the same snapshot of the data.
+          db.exec("begin");
+          db.prepare("select 1 from sqlite_schema limit 1").all();
+          isOpen = true;
+          port.postMessage({ type: "opened" });
+          break;
+        }
         // Another import may hold the write lock for a while: wait for it here, off the main
         // thread, rather than fail the job.
         db.exec("pragma busy_timeout = 60000");
@@ -124,7 +139,11 @@ port.on("message", (msg) => {
         port.postMessage({ type: "opened" });
         break;
       case "query":
-        port.postMessage({ type: "rows", id: msg.id, rows: db.prepare(msg.sql).all() });
+        port.postMessage({
+          type: "rows",
+          id: msg.id,
+          rows: db.prepare(msg.sql).all(msg.args ?? []),
+        });
         break;
       case "exec":
         timed("sql", () => db.exec(msg.sql));
