@@ -43,6 +43,11 @@ export function Filters({
         .map((f) => f.value.split("/")[0] as string),
     ),
   ];
+  // The vendor box is typed into: it applies on Enter or on leaving it, not on every key.
+  const commitVendor = (value: string) => {
+    const vendor = value.trim() || undefined;
+    if (vendor !== params.vendor) setParams({ vendor });
+  };
   return (
     <section
       aria-label="Filters"
@@ -148,6 +153,47 @@ export function Filters({
           ))}
         </select>
       </label>
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Repairs from</span>
+        <input
+          type="date"
+          className={selectClass}
+          value={params.from ?? ""}
+          max={params.to}
+          onChange={(e) => setParams({ from: e.target.value || undefined })}
+        />
+      </label>
+      <label className="block text-sm">
+        <span className="mb-1 block font-medium">Repairs to</span>
+        <input
+          type="date"
+          className={selectClass}
+          value={params.to ?? ""}
+          min={params.from}
+          onChange={(e) => setParams({ to: e.target.value || undefined })}
+        />
+      </label>
+      <label className="block text-sm lg:col-span-2">
+        <span className="mb-1 block font-medium">Vendor (shop that did the repair)</span>
+        <input
+          key={params.vendor ?? ""}
+          type="search"
+          className={selectClass}
+          defaultValue={params.vendor ?? ""}
+          placeholder="any vendor — press Enter"
+          onBlur={(e) => commitVendor(e.target.value)}
+          onKeyDown={(e) => {
+            if (e.key === "Enter") {
+              e.preventDefault();
+              commitVendor(e.currentTarget.value);
+            }
+          }}
+        />
+      </label>
+      <p className="text-xs text-ink-soft sm:col-span-3 lg:col-span-3 lg:self-end">
+        A period or a vendor counts only those repairs (and, for a period, only the miles driven in
+        it); the first view of each takes a few seconds to compute.
+      </p>
       <div className="flex flex-wrap items-center gap-3 text-sm sm:col-span-3 lg:col-span-7">
         <label className="flex items-center gap-2">
           <input
@@ -168,6 +214,9 @@ export function Filters({
               fault: undefined,
               bandFrom: undefined,
               bandTo: undefined,
+              from: undefined,
+              to: undefined,
+              vendor: undefined,
               signals: undefined,
               view: "cohorts",
             })

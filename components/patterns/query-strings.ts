@@ -8,6 +8,10 @@ export type ExplorerParams = {
   generation?: string;
   bandFrom?: string;
   bandTo?: string;
+  /** Repairs opened from / to (ISO dates) and by one vendor: a filtered view. */
+  from?: string;
+  to?: string;
+  vendor?: string;
   signals?: string;
   sort?: string;
   direction?: string;
@@ -15,7 +19,17 @@ export type ExplorerParams = {
 };
 
 /** The filters every view shares. */
-const FILTER_KEYS = ["fault", "make", "model", "generation", "bandFrom", "bandTo"] as const;
+const FILTER_KEYS = [
+  "fault",
+  "make",
+  "model",
+  "generation",
+  "bandFrom",
+  "bandTo",
+  "from",
+  "to",
+  "vendor",
+] as const;
 
 export const EXPLORER_KEYS = [
   "view",

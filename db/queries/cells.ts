@@ -45,7 +45,19 @@ export type CellFilter = {
   direction?: "asc" | "desc";
   limit: number;
   offset?: number;
+  /** A filtered view's cells (ensureCellView) instead of the latest run's. */
+  viewId?: number | null;
 };
+
+/** The table of the latest run's cells, or of a filtered view's, as `c`, and its condition. */
+export function cellSource(organisationId: number, viewId?: number | null) {
+  return viewId
+    ? {
+        table: sql.raw("cell_view_stats"),
+        where: sql`c.organisation_id = ${organisationId} and c.view_id = ${viewId}`,
+      }
+    : { table: sql.raw("cell_stats"), where: sql`c.organisation_id = ${organisationId}` };
+}
 
 export const CELL_SORTS = [
   "ratioLower",
@@ -75,10 +87,8 @@ const num = (v: unknown): number | null => (v === null || v === undefined ? null
  */
 export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilter) {
   assertCan(scope, "patterns:read");
-  const conditions: SQL[] = [
-    sql`c.organisation_id = ${scope.organisationId}`,
-    sql`c.fault_key <> 'all'`,
-  ];
+  const source = cellSource(scope.organisationId, filter.viewId);
+  const conditions: SQL[] = [source.where, sql`c.fault_key <> 'all'`];
   if (filter.fault) {
     // A DTC, a component slug, or a system (the part of component slugs before the "/").
     const f = filter.fault.trim();
@@ -102,7 +112,7 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
            k.slug as component, c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected,
            c.rate_per_10k, c.rate_lower, c.rate_upper, c.rate_ratio, c.ratio_lower, c.ratio_upper,
            c.p_value, c.q_value, c.shrunk_rate_per_10k, c.is_signal, s.created_at as first_seen
-      from cell_stats c
+      from ${source.table} c
       left join generations g on g.id = c.generation_id
       left join components k on k.id = c.component_id
       left join signals s on s.organisation_id = c.organisation_id and s.make = c.make and s.model = c.model
@@ -111,7 +121,7 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
      order by ${sql.raw(orderBy)}
      limit ${filter.limit} offset ${filter.offset ?? 0}`);
   const [count] = await db.all<{ n: number }>(sql`
-    select count(*) as n from cell_stats c left join components k on k.id = c.component_id where ${filterSql}`);
+    select count(*) as n from ${source.table} c left join components k on k.id = c.component_id where ${filterSql}`);
   const cells: (RankedCell & { firstSeen?: string | null })[] = rows.map((r) => {
     const label = String(r.cohort_label);
     const year = /^\d{4}$/.test(label) ? Number(label) : null;

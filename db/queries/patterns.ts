@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import { meanCumulativeFunction } from "@/lib/stats";
+import { cellSource } from "./cells";
 import { assertCan, type OrgScope } from "./scope";
 
 /** A fault filter: "P0441" (DTC), "fuel-vapour/purge-valve" (component) or "fuel-vapour" (system). */
@@ -87,6 +88,8 @@ export type HeatmapQuery = {
   bandToMi?: number;
   /** Most rows shown in the fault view (by events). */
   maxRows?: number;
+  /** A filtered view's cells (ensureCellView) instead of the latest run's. */
+  viewId?: number | null;
 };
 
 /**
@@ -95,7 +98,8 @@ export type HeatmapQuery = {
  */
 export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
   assertCan(scope, "patterns:read");
-  const conds = [sql`c.organisation_id = ${scope.organisationId}`];
+  const source = cellSource(scope.organisationId, q.viewId);
+  const conds = [source.where];
   if (q.view === "cohorts") conds.push(sql`c.fault_key = ${q.fault ? faultKeyOf(q.fault) : "all"}`);
   else conds.push(sql`c.fault_key <> 'all'`);
   if (q.make) conds.push(sql`c.make = ${q.make}`);
@@ -105,15 +109,15 @@ export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
   if (q.bandToMi !== undefined) conds.push(sql`c.band_from_mi < ${q.bandToMi}`);
   if (q.view === "faults") {
     // The faults with the most events in this cohort.
-    conds.push(sql`c.fault_key in (select fault_key from cell_stats
-        where organisation_id = ${scope.organisationId} and fault_key <> 'all'
-          ${q.make ? sql`and make = ${q.make}` : sql``} ${q.model ? sql`and model = ${q.model}` : sql``}
-          ${q.generation ? sql`and cohort_label = ${q.generation}` : sql``}
-        group by fault_key order by sum(events) desc limit ${q.maxRows ?? 25})`);
+    conds.push(sql`c.fault_key in (select c.fault_key from ${source.table} c
+        where ${source.where} and c.fault_key <> 'all'
+          ${q.make ? sql`and c.make = ${q.make}` : sql``} ${q.model ? sql`and c.model = ${q.model}` : sql``}
+          ${q.generation ? sql`and c.cohort_label = ${q.generation}` : sql``}
+        group by c.fault_key order by sum(c.events) desc limit ${q.maxRows ?? 25})`);
   }
   const rows = await db.all<Record<string, unknown>>(sql`
     select ${CELL_COLUMNS}, k.name as component_name, k.system as component_system, d.description as dtc_description
-      from cell_stats c
+      from ${source.table} c
       left join components k on k.id = c.component_id
       left join dtc_codes d on d.code = c.dtc
      where ${sql.join(conds, sql` and `)}

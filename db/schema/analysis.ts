@@ -30,6 +30,42 @@ export const analysisRuns = sqliteTable(
   (t) => [index("analysis_runs_org").on(t.organisationId, t.startedAt)],
 );
 
+/** The statistics of one cohort × mileage band × fault cell (shared by runs and views). */
+const cellColumns = () => ({
+  make: text("make").notNull(),
+  model: text("model").notNull(),
+  generationId: integer("generation_id").references(() => generations.id, {
+    onDelete: "set null",
+  }),
+  /** Generation label, or the model year when no generation matches. */
+  cohortLabel: text("cohort_label").notNull(),
+  bandIndex: integer("band_index").notNull(),
+  bandFromMi: real("band_from_mi").notNull(),
+  bandToMi: real("band_to_mi").notNull(),
+  /** "dtc:P0441", "component:fuel-vapour/purge-valve" or both joined with "+". */
+  faultKey: text("fault_key").notNull(),
+  dtc: text("dtc"),
+  componentId: integer("component_id").references(() => components.id),
+  events: integer("events").notNull(),
+  exposureMi: real("exposure_mi").notNull(),
+  vehiclesAtRisk: integer("vehicles_at_risk").notNull(),
+  vehiclesAffected: integer("vehicles_affected").notNull(),
+  ratePer10k: real("rate_per_10k"),
+  rateLower: real("rate_lower"),
+  rateUpper: real("rate_upper"),
+  shareAffected: real("share_affected"),
+  shareLower: real("share_lower"),
+  shareUpper: real("share_upper"),
+  rateRatio: real("rate_ratio"),
+  ratioLower: real("ratio_lower"),
+  ratioUpper: real("ratio_upper"),
+  pValue: real("p_value"),
+  qValue: real("q_value"),
+  shrunkRatePer10k: real("shrunk_rate_per_10k"),
+  isSignal: integer("is_signal", { mode: "boolean" }).notNull().default(false),
+  hasTooLittleData: integer("has_too_little_data", { mode: "boolean" }).notNull().default(false),
+});
+
 /** Computed statistics of one cohort × mileage band × fault cell in one analysis run. */
 export const cellStats = sqliteTable(
   "cell_stats",
@@ -39,38 +75,7 @@ export const cellStats = sqliteTable(
     runId: integer("run_id")
       .notNull()
       .references(() => analysisRuns.id, { onDelete: "cascade" }),
-    make: text("make").notNull(),
-    model: text("model").notNull(),
-    generationId: integer("generation_id").references(() => generations.id, {
-      onDelete: "set null",
-    }),
-    /** Generation label, or the model year when no generation matches. */
-    cohortLabel: text("cohort_label").notNull(),
-    bandIndex: integer("band_index").notNull(),
-    bandFromMi: real("band_from_mi").notNull(),
-    bandToMi: real("band_to_mi").notNull(),
-    /** "dtc:P0441", "component:fuel-vapour/purge-valve" or both joined with "+". */
-    faultKey: text("fault_key").notNull(),
-    dtc: text("dtc"),
-    componentId: integer("component_id").references(() => components.id),
-    events: integer("events").notNull(),
-    exposureMi: real("exposure_mi").notNull(),
-    vehiclesAtRisk: integer("vehicles_at_risk").notNull(),
-    vehiclesAffected: integer("vehicles_affected").notNull(),
-    ratePer10k: real("rate_per_10k"),
-    rateLower: real("rate_lower"),
-    rateUpper: real("rate_upper"),
-    shareAffected: real("share_affected"),
-    shareLower: real("share_lower"),
-    shareUpper: real("share_upper"),
-    rateRatio: real("rate_ratio"),
-    ratioLower: real("ratio_lower"),
-    ratioUpper: real("ratio_upper"),
-    pValue: real("p_value"),
-    qValue: real("q_value"),
-    shrunkRatePer10k: real("shrunk_rate_per_10k"),
-    isSignal: integer("is_signal", { mode: "boolean" }).notNull().default(false),
-    hasTooLittleData: integer("has_too_little_data", { mode: "boolean" }).notNull().default(false),
+    ...cellColumns(),
   },
   (t) => [
     index("cell_stats_run_rank").on(t.runId, t.ratioLower),
@@ -109,4 +114,38 @@ export const signals = sqliteTable(
     uniqueIndex("signals_org_cell").on(t.organisationId, t.cellKey),
     index("signals_org_state").on(t.organisationId, t.state),
   ],
+);
+
+/**
+ * A filtered view of an organisation's cells (repairs opened in a period, or done by one
+ * vendor), computed on first use beside one analysis run and deleted with it.
+ */
+export const cellViews = sqliteTable(
+  "cell_views",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    runId: integer("run_id")
+      .notNull()
+      .references(() => analysisRuns.id, { onDelete: "cascade" }),
+    /** The filter, as canonical JSON ({"from","to","vendor"}). */
+    viewKey: text("view_key").notNull(),
+    cells: integer("cells").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("cell_views_org_run_key").on(t.organisationId, t.runId, t.viewKey)],
+);
+
+/** The cells of a filtered view (the same columns as cell_stats). */
+export const cellViewStats = sqliteTable(
+  "cell_view_stats",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    viewId: integer("view_id")
+      .notNull()
+      .references(() => cellViews.id, { onDelete: "cascade" }),
+    ...cellColumns(),
+  },
+  (t) => [index("cell_view_stats_view_rank").on(t.viewId, t.ratioLower)],
 );

@@ -15,6 +15,19 @@ export type EventCount = {
 
 export type EventCounts = { counts: EventCount[]; linesWithoutOdometer: number };
 
+/** Repairs opened in a period (ISO dates, inclusive) and/or done by one vendor. */
+export type EventFilter = { from?: string; to?: string; vendor?: string };
+
+/** The filter as SQL on repair lines `l`, with its three arguments as ?3, ?4 and ?5. */
+function filterSql(filter: EventFilter): { sql: string; args: (string | null)[] } {
+  if (!filter.from && !filter.to && !filter.vendor) return { sql: "", args: [] };
+  return {
+    sql: ` and (?3 is null or l.opened_on >= ?3) and (?4 is null or l.opened_on <= ?4)
+           and (?5 is null or l.vendor = ?5 collate nocase)`,
+    args: [filter.from ?? null, filter.to ?? null, filter.vendor ?? null],
+  };
+}
+
 type Row = Record<string, unknown>;
 
 const MISSING_SQL = `select count(*) as n from repair_lines where organisation_id = ?1 and odometer_mi is null`;
@@ -30,11 +43,12 @@ export function countEvents(
   db: Db,
   organisationId: number,
   bandWidthMi: number,
+  filter: EventFilter = {},
 ): Promise<EventCounts> {
   const file = localDatabasePath(db);
   return file
-    ? countEventsPerVehicle(db, file, organisationId, bandWidthMi)
-    : countEventsByCohort(db, organisationId, bandWidthMi);
+    ? countEventsPerVehicle(db, file, organisationId, bandWidthMi, filter)
+    : countEventsByCohort(db, organisationId, bandWidthMi, filter);
 }
 
 /**
@@ -48,10 +62,12 @@ export async function countEventsByCohort(
   db: Db,
   organisationId: number,
   bandWidthMi: number,
+  filter: EventFilter = {},
 ): Promise<EventCounts> {
+  const only = filterSql(filter);
   const cohort = `v.make, v.model, ${COHORT_LABEL_SQL} as label, cast(l.odometer_mi / ?2 as integer) as band`;
   const vehicle = `join vehicles v on v.id = l.vehicle_id left join generations g on g.id = v.generation_id`;
-  const args = [organisationId, bandWidthMi];
+  const args = [organisationId, bandWidthMi, ...only.args];
   const [byDtc, byComponent, all, missing] = await db.$client.batch(
     [
       {
@@ -60,7 +76,7 @@ export async function countEventsByCohort(
                 from repair_line_codes c
                 join repair_lines l on l.id = c.repair_line_id
                 ${vehicle}
-               where c.organisation_id = ?1 and l.odometer_mi is not null
+               where c.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                group by 1, 2, 3, 4, c.dtc`,
         args,
       },
@@ -70,7 +86,7 @@ export async function countEventsByCohort(
                 from repair_lines l
                 join components k on k.id = l.component_id
                 ${vehicle}
-               where l.organisation_id = ?1 and l.odometer_mi is not null
+               where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                group by 1, 2, 3, 4, l.component_id`,
         args,
       },
@@ -79,7 +95,7 @@ export async function countEventsByCohort(
                      count(*) as events, count(distinct l.vehicle_id) as affected
                 from repair_lines l
                 ${vehicle}
-               where l.organisation_id = ?1 and l.odometer_mi is not null
+               where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                  and (l.component_id is not null or l.dtc_codes is not null)
                group by 1, 2, 3, 4`,
         args,
@@ -118,15 +134,17 @@ export async function countEventsPerVehicle(
   file: string,
   organisationId: number,
   bandWidthMi: number,
+  filter: EventFilter = {},
 ): Promise<EventCounts> {
+  const only = filterSql(filter);
   const band = "cast(l.odometer_mi / ?2 as integer)";
-  const args = [organisationId, bandWidthMi];
+  const args = [organisationId, bandWidthMi, ...only.args];
   const inThread = readInThread(file, [
     {
       sql: `select c.vehicle_id, ${band} as band, c.dtc, count(*) as n
               from repair_line_codes c
               join repair_lines l on l.id = c.repair_line_id
-             where c.organisation_id = ?1 and l.odometer_mi is not null
+             where c.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
              group by c.vehicle_id, band, c.dtc`,
       args,
     },
@@ -134,7 +152,7 @@ export async function countEventsPerVehicle(
       sql: `select l.vehicle_id, ${band} as band, l.component_id, l.dtc_codes is not null as has_dtc,
                    count(*) as n
               from repair_lines l
-             where l.organisation_id = ?1 and l.odometer_mi is not null
+             where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                and (l.component_id is not null or l.dtc_codes is not null)
              group by l.vehicle_id, band, l.component_id, has_dtc`,
       args,

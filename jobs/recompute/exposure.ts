@@ -1,5 +1,5 @@
 import type { Db } from "@/db";
-import { allocateExposure, cleanOdometerReadings } from "@/lib/stats";
+import { allocateExposure, cleanOdometerReadings, clipReadingsToPeriod } from "@/lib/stats";
 import { COHORT_LABEL_SQL, cohortKey, type Cohort } from "./cohorts";
 
 export type BandExposure = { miles: number; vehicles: number };
@@ -27,7 +27,11 @@ export async function computeExposure(
   db: Db,
   organisationId: number,
   bandWidthMi: number,
+  period: { from?: string; to?: string } = {},
 ): Promise<ExposureResult> {
+  // Only the miles driven within the period count (ISO dates, both days included).
+  const periodStart = period.from ? Date.parse(`${period.from}T00:00:00Z`) : null;
+  const periodEnd = period.to ? Date.parse(`${period.to}T00:00:00Z`) + DAY_MS : null;
   const cohorts = new Map<string, Cohort>();
   const vehicleCohort = new Map<number, string>();
   const vehicleRows = await db.$client.execute({
@@ -94,8 +98,12 @@ export async function computeExposure(
       }
       batch.sort((a, b) => a.at - b.at);
       readings += batch.length;
-      const { kept, ignored } = cleanOdometerReadings(batch);
-      readingsIgnored += ignored;
+      const cleaned = cleanOdometerReadings(batch);
+      readingsIgnored += cleaned.ignored;
+      const kept =
+        periodStart === null && periodEnd === null
+          ? cleaned.kept
+          : clipReadingsToPeriod(cleaned.kept, periodStart, periodEnd);
       if (!key || kept.length < 2) continue;
       let bands = byCohortBand.get(key);
       if (!bands) byCohortBand.set(key, (bands = new Map()));

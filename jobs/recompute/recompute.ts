@@ -4,7 +4,7 @@ import { organisations } from "@/db/schema";
 import { unitToMiles } from "@/lib/units";
 import { insertStatements, type SqlValue } from "../import/sql-literal";
 import { computeCells, type CellStat } from "./cells";
-import { countEvents } from "./events";
+import { countEvents, type EventFilter } from "./events";
 import { computeExposure } from "./exposure";
 
 export type RecomputeResult = {
@@ -17,7 +17,7 @@ export type RecomputeResult = {
   seconds: number;
 };
 
-const CELL_COLUMNS = [
+export const CELL_COLUMNS = [
   "organisation_id",
   "run_id",
   "make",
@@ -54,7 +54,8 @@ export function cellKey(c: Pick<CellStat, "cohort" | "band" | "faultKey">): stri
   return `${c.cohort.key}|${c.band}|${c.faultKey}`;
 }
 
-function cellValues(org: number, runId: number, c: CellStat): SqlValue[] {
+/** A cell's values in CELL_COLUMNS order (the second is its run, or its view). */
+export function cellValues(org: number, runId: number, c: CellStat): SqlValue[] {
   return [
     org,
     runId,
@@ -90,6 +91,43 @@ function cellValues(org: number, runId: number, c: CellStat): SqlValue[] {
 }
 
 /**
+ * The cells of an organisation from its data, not stored: exposure from every odometer reading
+ * and events by GROUP BY (counted in a reader thread on a local file while exposure is worked
+ * out here), then the statistics in lib/stats. With a filter, only repairs opened in the period
+ * (and the miles driven in it), or done by the vendor, count (a filtered view, cell-views.ts).
+ */
+export async function computeOrganisationCells(
+  db: Db,
+  organisationId: number,
+  filter: EventFilter = {},
+  onPhase: (phase: string) => void = () => {},
+) {
+  const [org] = await db.select().from(organisations).where(eq(organisations.id, organisationId));
+  if (!org) throw new Error(`recompute: organisation ${organisationId} does not exist`);
+  const bandWidthMi = unitToMiles(org.bandWidth, org.distanceUnit);
+  const minExposureMi = unitToMiles(org.minExposure, org.distanceUnit);
+  const [{ counts, linesWithoutOdometer }, exposure] = await Promise.all([
+    countEvents(db, organisationId, bandWidthMi, filter).finally(() => onPhase("events")),
+    computeExposure(db, organisationId, bandWidthMi, filter).finally(() => onPhase("exposure")),
+  ]);
+  const cells = computeCells({
+    cohorts: exposure.cohorts,
+    exposure: exposure.byCohortBand,
+    counts,
+    bandWidthMi,
+    confidence: org.confidenceLevel,
+    minExposureMi,
+  });
+  return {
+    cells,
+    exposure,
+    linesWithoutOdometer,
+    bandWidthMi,
+    confidenceLevel: org.confidenceLevel,
+  };
+}
+
+/**
  * Recomputes an organisation's cells and signals from its data: exposure from every odometer
  * reading, events by GROUP BY, statistics in lib/stats, then one write transaction that stores
  * the new run's cells, drops older runs, and records signals (keeping when each first appeared).
@@ -100,28 +138,12 @@ export async function recomputeOrganisation(
   log: (msg: string) => void = () => {},
 ): Promise<RecomputeResult> {
   const started = performance.now();
-  const [org] = await db.select().from(organisations).where(eq(organisations.id, organisationId));
-  if (!org) throw new Error(`recompute: organisation ${organisationId} does not exist`);
-  const bandWidthMi = unitToMiles(org.bandWidth, org.distanceUnit);
-  const minExposureMi = unitToMiles(org.minExposure, org.distanceUnit);
-
-  // Events are counted (in a reader thread on a local file) while exposure is worked out here.
   const at = () => ((performance.now() - started) / 1000).toFixed(1);
   const phases: string[] = [];
-  const [{ counts, linesWithoutOdometer }, exposure] = await Promise.all([
-    countEvents(db, organisationId, bandWidthMi).finally(() => phases.push(`events ${at()} s`)),
-    computeExposure(db, organisationId, bandWidthMi).finally(() =>
-      phases.push(`exposure ${at()} s`),
-    ),
-  ]);
-  const cells = computeCells({
-    cohorts: exposure.cohorts,
-    exposure: exposure.byCohortBand,
-    counts,
-    bandWidthMi,
-    confidence: org.confidenceLevel,
-    minExposureMi,
-  });
+  const { cells, exposure, linesWithoutOdometer, bandWidthMi, confidenceLevel } =
+    await computeOrganisationCells(db, organisationId, {}, (phase) =>
+      phases.push(`${phase} ${at()} s`),
+    );
   const signals = cells.filter((c) => c.isSignal);
   phases.push(`statistics ${at()} s`);
 
@@ -134,7 +156,7 @@ export async function recomputeOrganisation(
       args: [
         organisationId,
         bandWidthMi,
-        org.confidenceLevel,
+        confidenceLevel,
         cells.length,
         signals.length,
         exposure.readingsIgnored,

@@ -29,5 +29,6 @@ export { poissonStockLevel } from "./poisson-stock-level";
 export { expectedShortfall } from "./expected-shortfall";
 export { mileageBand, type MileageBand } from "./mileage-band";
 export { allocateExposure } from "./allocate-exposure";
+export { clipReadingsToPeriod } from "./clip-readings-to-period";
 export { cleanOdometerReadings, type CleanedReadings } from "./clean-odometer-readings";
 export type { OdometerReading } from "./internal/readings";

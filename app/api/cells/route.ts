@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { getDb } from "@/db";
+import { ensureCellView } from "@/db/queries/cell-views";
 import { getLatestRun, listRankedCells } from "@/db/queries/cells";
 import { apiRoute, jsonError } from "@/lib/auth/guard";
 import { CellQuery } from "@/lib/cell-request";
@@ -51,6 +52,12 @@ export const GET = apiRoute("patterns:read", async (req, auth) => {
     ]);
   }
   const db = await getDb();
+  // A period or a vendor: the cells of that view (computed from the raw rows on first use).
+  const viewId = await ensureCellView(db, auth, {
+    from: q.data.from,
+    to: q.data.to,
+    vendor: q.data.vendor,
+  });
   const isCsv = f.data.format === "csv";
   const { cells, total } = await listRankedCells(db, auth, {
     fault: q.data.fault,
@@ -59,6 +66,7 @@ export const GET = apiRoute("patterns:read", async (req, auth) => {
     generation: q.data.generation,
     bandFromMi: q.data.bandFrom,
     bandToMi: q.data.bandTo,
+    viewId,
     isSignalOnly: q.data.signals,
     sort: q.data.sort,
     direction: q.data.direction,

@@ -9,6 +9,7 @@ import {
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { getDb } from "@/db";
+import { ensureCellView } from "@/db/queries/cell-views";
 import { getLatestRun, listRankedCells } from "@/db/queries/cells";
 import { getHeatmap, getPatternOptions } from "@/db/queries/patterns";
 import { requirePage } from "@/lib/auth/guard";
@@ -55,6 +56,10 @@ export default async function PatternsPage({
   const hq = HeatmapQuery.safeParse(params);
   const page = Math.max(1, Number(params.page ?? 1) || 1);
   const cq = CellQuery.safeParse({ ...params, limit: PAGE_SIZE, offset: (page - 1) * PAGE_SIZE });
+  // A period or a vendor: the cells of that view (computed from the raw rows on first use).
+  const viewId = cq.success
+    ? await ensureCellView(db, auth, { from: cq.data.from, to: cq.data.to, vendor: cq.data.vendor })
+    : null;
   const [options, heatmap, ranked] = await Promise.all([
     getPatternOptions(db, auth),
     getHeatmap(db, auth, {
@@ -65,6 +70,7 @@ export default async function PatternsPage({
       generation: hq.data?.generation,
       bandFromMi: hq.data?.bandFrom,
       bandToMi: hq.data?.bandTo,
+      viewId,
     }),
     listRankedCells(db, auth, {
       fault: cq.data?.fault,
@@ -77,6 +83,7 @@ export default async function PatternsPage({
       sort: cq.data?.sort,
       direction: cq.data?.direction,
       withFirstSeen: true,
+      viewId,
       limit: PAGE_SIZE,
       offset: (page - 1) * PAGE_SIZE,
     }),
