@@ -39,8 +39,12 @@ export type RefuelVehicle = RefuelRow & {
   sinceMi: (number | null)[];
 };
 export type RefuelEvent = {
-  repairOrderId: number;
-  roNumber: string;
+  /** A repair order with a stall or no-start line, or a fault-code event (see getRefuelAnalysis). */
+  source: "repair" | "fault";
+  repairOrderId: number | null;
+  roNumber: string | null;
+  faultEventId: number | null;
+  dtc: string | null;
   vehicleId: number;
   openedOn: string;
   odometerMi: number;
@@ -76,10 +80,13 @@ const clean = (r: RefuelWindowResult): RefuelWindowResult => ({
 /**
  * Post-refuel stall test (statistics.md §7) per cohort and per vehicle.
  *
- * What counts as an event: a repair order with a line whose symptom is stall or no-start and an
- * odometer reading (one event per repair order, however many lines). Fault-code events are not
- * counted: they carry a code, a time and an odometer but no symptom, and a code does not say
- * that the engine stopped. Events without an odometer reading are counted in
+ * What counts as an event: a repair order with a line whose symptom is stall or no-start (one
+ * event per repair order, however many lines); and a fault-code event whose code the
+ * organisation has tied to a stall or no-start in that cohort — a code listed on a known issue
+ * (not retired) with that symptom for the vehicle's cohort. A code alone does not say that the
+ * engine stopped; the known issue is where the organisation says it does. One event per vehicle
+ * and day: a fault event on the day of a counted repair order, or of another counted fault
+ * event, is the same incident. Events without an odometer reading are counted in
  * eventsWithoutOdometer; events with no fill-up in the previous 1,000 mi in noFuelData, and
  * their vehicles are listed. Every query pins the organisation.
  */
@@ -130,11 +137,12 @@ export async function getRefuelAnalysis(
     title: string;
     state: string;
     symptoms: string | null;
+    dtc_codes: string | null;
     make: string;
     model: string;
     label: string | null;
   }>(sql`
-    select ki.id, ki.title, ki.state, ki.symptoms, c.make, c.model, g.label
+    select ki.id, ki.title, ki.state, ki.symptoms, ki.dtc_codes, c.make, c.model, g.label
       from known_issues ki
       join known_issue_cohorts c on c.known_issue_id = ki.id and c.organisation_id = ${scope.organisationId}
       left join generations g on g.id = c.generation_id
@@ -146,23 +154,98 @@ export async function getRefuelAnalysis(
     const v = info.get(id);
     return v ? `${v.make}|${v.model}|${v.label}` : "?|?|?";
   };
-  const measured = eventRows.filter((e) => e.odometer_mi !== null);
-  const eventsWithoutOdometer = eventRows.length - measured.length;
+
+  // Fault codes the organisation ties to a stall or no-start, per known issue and cohort.
+  const codeRules = knownIssueRows.flatMap((k) => {
+    const symptom = (k.symptoms ?? "")
+      .split(/\s+/)
+      .find((x): x is RefuelSymptom => (symptoms as readonly string[]).includes(x));
+    const codes = (k.dtc_codes ?? "")
+      .toUpperCase()
+      .split(/[\s,;]+/)
+      .filter(Boolean);
+    return symptom && codes.length ? [{ ...k, symptom, codes }] : [];
+  });
+  const faultSymptom = (vehicleId: number, dtc: string): RefuelSymptom | null => {
+    const v = info.get(vehicleId);
+    if (!v) return null;
+    const rule = codeRules.find(
+      (k) =>
+        k.make === v.make &&
+        k.model === v.model &&
+        (k.label === null || k.label === v.label) &&
+        k.codes.includes(dtc),
+    );
+    return rule?.symptom ?? null;
+  };
+  const allCodes = [...new Set(codeRules.flatMap((k) => k.codes))];
+  const faultRows = allCodes.length
+    ? await db.all<{
+        id: number;
+        vehicle_id: number;
+        occurred_at: string;
+        odometer_mi: number | null;
+        dtc: string;
+      }>(sql`
+        select id, vehicle_id, occurred_at, odometer_mi, dtc from fault_events
+         where organisation_id = ${scope.organisationId}
+           and dtc in (${sql.join(
+             allCodes.map((c) => sql`${c}`),
+             sql`, `,
+           )})
+         order by vehicle_id, occurred_at, id`)
+    : [];
+  type Candidate = Omit<RefuelEvent, "sinceMi" | "intervalMi" | "odometerMi"> & {
+    odometerMi: number | null;
+  };
+  const candidates: Candidate[] = eventRows.map((e) => ({
+    source: "repair",
+    repairOrderId: Number(e.repair_order_id),
+    roNumber: e.ro_number,
+    faultEventId: null,
+    dtc: null,
+    vehicleId: Number(e.vehicle_id),
+    openedOn: e.opened_on,
+    odometerMi: e.odometer_mi === null ? null : Number(e.odometer_mi),
+    symptom: e.symptom,
+  }));
+  // One incident per vehicle and day: repair orders first, then the day's first fault event.
+  const days = new Set(candidates.map((e) => `${e.vehicleId}|${e.openedOn.slice(0, 10)}`));
+  let faultEvents = 0;
+  for (const f of faultRows) {
+    const vehicleId = Number(f.vehicle_id);
+    const symptom = faultSymptom(vehicleId, f.dtc);
+    const day = `${vehicleId}|${f.occurred_at.slice(0, 10)}`;
+    if (!symptom || days.has(day)) continue;
+    days.add(day);
+    faultEvents++;
+    candidates.push({
+      source: "fault",
+      repairOrderId: null,
+      roNumber: null,
+      faultEventId: Number(f.id),
+      dtc: f.dtc,
+      vehicleId,
+      openedOn: f.occurred_at.slice(0, 10),
+      odometerMi: f.odometer_mi === null ? null : Number(f.odometer_mi),
+      symptom,
+    });
+  }
+  candidates.sort((a, b) => a.vehicleId - b.vehicleId || a.openedOn.localeCompare(b.openedOn));
+  const measured = candidates.filter(
+    (e): e is Candidate & { odometerMi: number } => e.odometerMi !== null,
+  );
+  const eventsWithoutOdometer = candidates.length - measured.length;
   const fillUps = fills.map((f) => ({
     vehicle: Number(f.vehicle_id),
     odometer: Number(f.odometer_mi),
   }));
   const measures = measureSinceFillUp(
-    measured.map((e) => ({ vehicle: Number(e.vehicle_id), odometer: Number(e.odometer_mi) })),
+    measured.map((e) => ({ vehicle: e.vehicleId, odometer: e.odometerMi })),
     fillUps,
   );
   const events: RefuelEvent[] = measured.map((e, i) => ({
-    repairOrderId: Number(e.repair_order_id),
-    roNumber: e.ro_number,
-    vehicleId: Number(e.vehicle_id),
-    openedOn: e.opened_on,
-    odometerMi: Number(e.odometer_mi),
-    symptom: e.symptom,
+    ...e,
     sinceMi: measures[i]!.sinceMi,
     intervalMi: measures[i]!.intervalMi,
   }));
@@ -280,6 +363,8 @@ export async function getRefuelAnalysis(
     vehicles: perVehicle,
     events,
     eventsWithoutOdometer,
+    /** Events from fault codes (the rest are repair orders). */
+    faultEvents,
     noFuelData,
     histogram,
   };

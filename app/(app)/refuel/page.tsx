@@ -132,11 +132,13 @@ export default async function RefuelPage({
         </form>
         <p className="mt-3 text-xs text-ink-soft">
           Default window: the organisation&apos;s setting ({org.refuelWindow} {unit}). Counted:
-          repair orders with a {symptoms.join(" or ")} line and an odometer reading, one event per
-          order. Fault-code events are <strong>not</strong> counted: they carry a code, a time and
-          an odometer but no symptom, and a code alone does not say the engine stopped.
+          repair orders with a {symptoms.join(" or ")} line, one event per order; and fault-code
+          events whose code a known issue of the vehicle&apos;s cohort ties to a{" "}
+          {symptoms.join(" or ")} (a code alone does not say the engine stopped; the known issue is
+          where you say it does) — {r.faultEvents} of the events. One event per vehicle and day: a
+          fault code on the day of a repair order is the same incident.
           {r.eventsWithoutOdometer > 0
-            ? ` ${r.eventsWithoutOdometer} orders had no odometer reading and are left out.`
+            ? ` ${r.eventsWithoutOdometer} events had no odometer reading and are left out.`
             : ""}
         </p>
       </Panel>

@@ -8,6 +8,7 @@ import { createOrganisation, findOrganisationBySlug } from "@/db/queries/system"
 import { createVehicle } from "@/db/queries/vehicles";
 import { loadDemo } from "@/db/seed/demo";
 import {
+  faultEvents,
   fuelTransactions,
   knownIssueCohorts,
   knownIssues,
@@ -175,6 +176,125 @@ describe("post-refuel stall finder on generated fleets (statistics.md §7)", () 
     // Vehicle ids never cross organisations.
     const plainIds = new Set(p.vehicles.map((v) => v.vehicleId));
     expect(r.vehicles.some((v) => plainIds.has(v.vehicleId))).toBe(false);
+  });
+
+  test("fault codes count when a known issue of the cohort ties them to a stall; once per vehicle and day", async () => {
+    const org = await createOrganisation(db, {
+      slug: "codes",
+      name: "codes",
+      kind: "fleet",
+      distanceUnit: "mi",
+    });
+    const scope: OrgScope = { organisationId: org.id, userId: null, role: "admin" };
+    const vehicle = async (unitNumber: string, make: string, model: string) =>
+      (
+        await createVehicle(db, scope, {
+          unitNumber,
+          make,
+          model,
+          modelYear: 2016,
+          odometerUnit: "mi",
+        })
+      ).id;
+    const kestrel = await vehicle("K-1", "Aurel", "Kestrel");
+    const tern = await vehicle("T-1", "Brindle", "Tern");
+    for (const v of [kestrel, tern]) {
+      await db.insert(fuelTransactions).values(
+        [1000, 1300, 1600, 1900].map((odometerMi, i) => ({
+          organisationId: org.id,
+          vehicleId: v,
+          filledAt: `2025-03-0${i + 1}T08:00:00Z`,
+          odometerMi,
+        })),
+      );
+    }
+    const [issue] = await db
+      .insert(knownIssues)
+      .values({
+        organisationId: org.id,
+        title: "Stalls after fill-ups",
+        state: "watching",
+        symptoms: "stall rough-running",
+        dtcCodes: "P0496 P0441",
+      })
+      .returning();
+    await db.insert(knownIssueCohorts).values({
+      organisationId: org.id,
+      knownIssueId: issue!.id,
+      make: "Aurel",
+      model: "Kestrel",
+    });
+    // A stall repair order on 03-02 (1,302 mi: 2 mi after a fill-up).
+    const [order] = await db
+      .insert(repairOrders)
+      .values({
+        organisationId: org.id,
+        vehicleId: kestrel,
+        roNumber: "S-1",
+        openedOn: "2025-03-02",
+        odometerMi: 1302,
+      })
+      .returning();
+    await db.insert(repairLines).values({
+      organisationId: org.id,
+      repairOrderId: order!.id,
+      vehicleId: kestrel,
+      openedOn: "2025-03-02",
+      odometerMi: 1302,
+      symptom: "stall",
+    });
+    await db.insert(faultEvents).values([
+      // Counted: the issue's code, its cohort, 3 mi after a fill-up.
+      {
+        organisationId: org.id,
+        vehicleId: kestrel,
+        occurredAt: "2025-03-03T09:00:00Z",
+        odometerMi: 1603,
+        dtc: "P0496",
+      },
+      // The same day again (another code of the issue): the same incident.
+      {
+        organisationId: org.id,
+        vehicleId: kestrel,
+        occurredAt: "2025-03-03T09:05:00Z",
+        odometerMi: 1604,
+        dtc: "P0441",
+      },
+      // The day of the repair order: the same incident.
+      {
+        organisationId: org.id,
+        vehicleId: kestrel,
+        occurredAt: "2025-03-02T10:00:00Z",
+        odometerMi: 1302,
+        dtc: "P0496",
+      },
+      // Not the issue's code; not the issue's cohort.
+      {
+        organisationId: org.id,
+        vehicleId: kestrel,
+        occurredAt: "2025-03-04T09:00:00Z",
+        odometerMi: 1905,
+        dtc: "P0300",
+      },
+      {
+        organisationId: org.id,
+        vehicleId: tern,
+        occurredAt: "2025-03-03T09:00:00Z",
+        odometerMi: 1603,
+        dtc: "P0496",
+      },
+    ]);
+    const r = await getRefuelAnalysis(db, scope, 20);
+    expect(r.faultEvents).toBe(1);
+    expect(r.events.map((e) => [e.source, e.roNumber ?? e.dtc, e.odometerMi, e.sinceMi])).toEqual([
+      ["repair", "S-1", 1302, 2],
+      ["fault", "P0496", 1603, 3],
+    ]);
+    expect(r.fleet).toMatchObject({ events: 2, observed: 2 });
+    // Only stalls were tied to these codes: asked for no-starts, they do not count.
+    const noStarts = await getRefuelAnalysis(db, scope, 20, { symptoms: ["no-start"] });
+    expect(noStarts.faultEvents).toBe(0);
+    expect(noStarts.events).toEqual([]);
   });
 
   test("roles: viewers may read the analysis; technicians may not", async () => {
