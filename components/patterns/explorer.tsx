@@ -128,15 +128,18 @@ export function Explorer({
                 return;
               }
               router.push(
-                cellHref({
-                  make: row.make,
-                  model: row.model,
-                  generation: row.generation,
-                  bandFrom: cell.bandFrom,
-                  bandTo: cell.bandTo,
-                  dtc: /^[PCBU][0-3]/i.test(fault) ? fault : null,
-                  component: /^[PCBU][0-3]/i.test(fault) ? null : fault,
-                }),
+                cellHref(
+                  {
+                    make: row.make,
+                    model: row.model,
+                    generation: row.generation,
+                    bandFrom: cell.bandFrom,
+                    bandTo: cell.bandTo,
+                    dtc: /^[PCBU][0-3]/i.test(fault) ? fault : null,
+                    component: /^[PCBU][0-3]/i.test(fault) ? null : fault,
+                  },
+                  params,
+                ),
               );
             }}
           />
@@ -169,6 +172,7 @@ export function Explorer({
             }
             unit={unit}
             isFetching={cells.isFetching}
+            view={params}
             onSort={(sort, direction) => setParams({ sort, direction })}
             onPage={(p) => setParams({ page: String(p) })}
             csvHref={`/api/cells?${apiQuery(params, CELL_KEYS, { format: "csv" })}`}

@@ -86,16 +86,19 @@ export function explorerParams(raw: Record<string, string | undefined>): Explore
   } as ExplorerParams;
 }
 
-/** Address of a cell's drill-down page. */
-export function cellHref(c: {
-  make: string;
-  model: string;
-  generation: string;
-  bandFrom: number;
-  bandTo: number;
-  dtc: string | null;
-  component: string | null;
-}): string {
+/** Address of a cell's drill-down page; a period or vendor view carries on into it. */
+export function cellHref(
+  c: {
+    make: string;
+    model: string;
+    generation: string;
+    bandFrom: number;
+    bandTo: number;
+    dtc: string | null;
+    component: string | null;
+  },
+  view: Pick<ExplorerParams, "from" | "to" | "vendor"> = {},
+): string {
   const width = c.bandTo - c.bandFrom;
   const q = new URLSearchParams({
     make: c.make,
@@ -104,5 +107,9 @@ export function cellHref(c: {
     band: String(Math.round(c.bandFrom / width)),
     fault: c.dtc ?? c.component ?? "",
   });
+  for (const k of ["from", "to", "vendor"] as const) {
+    const v = view[k];
+    if (v) q.set(k, v);
+  }
   return `/patterns/cell?${q.toString()}`;
 }

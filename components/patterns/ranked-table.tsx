@@ -12,7 +12,7 @@ import { buttonClass } from "@/components/ui/button";
 import type { RankedCell } from "@/db/queries/cells";
 import { formatBand, formatInterval, formatSig } from "@/lib/format";
 import { ForestAxis, ForestBar } from "./forest-bar";
-import { cellHref } from "./query-strings";
+import { cellHref, type ExplorerParams } from "./query-strings";
 
 export type RankedRow = RankedCell & { firstSeen: string | null };
 
@@ -31,6 +31,7 @@ export function RankedTable({
   onPage,
   csvHref,
   isFetching,
+  view,
 }: {
   rows: RankedRow[];
   total: number;
@@ -43,13 +44,15 @@ export function RankedTable({
   onPage: (page: number) => void;
   csvHref: string;
   isFetching: boolean;
+  /** The explorer's period and vendor, carried into the drill-down. */
+  view?: Pick<ExplorerParams, "from" | "to" | "vendor">;
 }) {
   const columns = [
     column.accessor((r) => `${r.make} ${r.model} ${r.generation}`, {
       id: "cohort",
       header: "Cohort",
       enableSorting: false,
-      cell: (i) => <Link href={cellHref(i.row.original)}>{i.getValue()}</Link>,
+      cell: (i) => <Link href={cellHref(i.row.original, view)}>{i.getValue()}</Link>,
     }),
     column.accessor((r) => formatBand(r.bandFrom, r.bandTo, unit), {
       id: "band",

@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import { meanCumulativeFunction } from "@/lib/stats";
+import { ensureCellView, hasViewFilter } from "./cell-views";
 import { cellSource } from "./cells";
 import { assertCan, type OrgScope } from "./scope";
 
@@ -188,7 +189,7 @@ export type CellKey = {
   generation: string;
   band: number;
   fault: string;
-  /** Narrow the drill-down's repair lines (not the cell's statistics) to a period or a vendor. */
+  /** A period or a vendor: the drill-down's repair lines, totals and statistics (a filtered view). */
   from?: string;
   to?: string;
   vendor?: string;
@@ -216,15 +217,28 @@ function cellLines(scope: OrgScope, key: CellKey, bandWidthMi: number) {
 export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
   assertCan(scope, "patterns:read");
   const fk = faultKeyOf(key.fault);
-  const [cellRow] = await db.all<Record<string, unknown>>(sql`
-    select ${CELL_COLUMNS}, r.band_width_mi, r.confidence_level, r.finished_at,
-           k.name as component_name, k.system as component_system, d.description as dtc_description
-      from cell_stats c join analysis_runs r on r.id = c.run_id
-      left join components k on k.id = c.component_id
-      left join dtc_codes d on d.code = c.dtc
-     where c.organisation_id = ${scope.organisationId} and c.make = ${key.make} and c.model = ${key.model}
-       and c.cohort_label = ${key.generation} and c.band_index = ${key.band} and c.fault_key = ${fk}
-     limit 1`);
+  const viewFilter = { from: key.from, to: key.to, vendor: key.vendor };
+  // With a period or a vendor, the statistics are the filtered view's (as in the explorer);
+  // a cell that has no exposure in that view falls back to the whole history, and says so.
+  const viewId = await ensureCellView(db, scope, viewFilter);
+  const readCell = async (fromView: number | null) => {
+    const source = cellSource(scope.organisationId, fromView);
+    const run = fromView
+      ? sql`(select w.run_id from cell_views w where w.id = c.view_id)`
+      : sql`c.run_id`;
+    const [row] = await db.all<Record<string, unknown>>(sql`
+      select ${CELL_COLUMNS}, r.band_width_mi, r.confidence_level, r.finished_at,
+             k.name as component_name, k.system as component_system, d.description as dtc_description
+        from ${source.table} c join analysis_runs r on r.id = ${run}
+        left join components k on k.id = c.component_id
+        left join dtc_codes d on d.code = c.dtc
+       where ${source.where} and c.make = ${key.make} and c.model = ${key.model}
+         and c.cohort_label = ${key.generation} and c.band_index = ${key.band} and c.fault_key = ${fk}
+       limit 1`);
+    return row;
+  };
+  const viewRow = viewId ? await readCell(viewId) : undefined;
+  const cellRow = viewRow ?? (await readCell(null));
   if (!cellRow) return null;
   const bandWidthMi = Number(cellRow.band_width_mi);
   const lines = await db.all<Record<string, unknown>>(sql`
@@ -236,18 +250,18 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
       join vehicles v on v.id = l.vehicle_id
       left join generations g on g.id = v.generation_id
      where ${cellLines(scope, key, bandWidthMi)}
+       -- The same period and vendor conditions as the views' (jobs/recompute/events.ts).
        ${key.from ? sql`and l.opened_on >= ${key.from}` : sql``}
        ${key.to ? sql`and l.opened_on <= ${key.to}` : sql``}
-       ${key.vendor ? sql`and coalesce(l.vendor, o.vendor) = ${key.vendor}` : sql``}
+       ${key.vendor ? sql`and l.vendor = ${key.vendor} collate nocase` : sql``}
      order by l.opened_on desc, l.id desc
      limit 2000`);
   const vendorRows = await db.all<{ vendor: string }>(sql`
-    select distinct coalesce(l.vendor, o.vendor) as vendor
+    select distinct l.vendor
       from repair_lines l
-      join repair_orders o on o.id = l.repair_order_id
       join vehicles v on v.id = l.vehicle_id
       left join generations g on g.id = v.generation_id
-     where ${cellLines(scope, key, bandWidthMi)} and coalesce(l.vendor, o.vendor) is not null
+     where ${cellLines(scope, key, bandWidthMi)} and l.vendor is not null
      order by 1 limit 200`);
   // MCF over mileage for the cohort: each vehicle observed up to its last odometer reading.
   const histories = await db.all<{ vehicle_id: number; end_mi: number | null }>(sql`
@@ -330,7 +344,9 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
       vendor: l.vendor ? String(l.vendor) : null,
     })),
     isCapped: lines.length >= 2000,
-    isFiltered: Boolean(key.from || key.to || key.vendor),
+    isFiltered: hasViewFilter(viewFilter),
+    /** The statistics are the period's / vendor's (false: the whole history's). */
+    isViewStats: viewRow !== undefined,
     vendors: vendorRows.map((r) => String(r.vendor)),
     vehicles: [...vehicles.values()].sort((a, b) => b.repairs - a.repairs),
     totals: {

@@ -72,6 +72,24 @@ test("a period and a vendor narrow the explorer to those repairs, kept in the ad
   );
   expect((await api.json()).total).toBeGreaterThan(0);
   expect((await page.request.get("/api/cells?from=2025-01-01&to=2024-01-01")).status()).toBe(400);
+
+  // The drill-down keeps the view: the same repairs behind the figures the ranking showed.
+  const top = ranked.getByRole("row").nth(1);
+  const events = Number(
+    /^(\d+) in /.exec((await top.getByRole("cell").nth(3).textContent()) ?? "")?.[1],
+  );
+  expect(events).toBeGreaterThan(0);
+  await top.getByRole("link").click();
+  await expect(page).toHaveURL(/\/patterns\/cell\?.*from=2023-01-01.*to=2025-12-31.*vendor=/);
+  await expect(page.getByTestId("cell-view")).toHaveText(
+    `For repairs opened 2023-01-01 to 2025-12-31 by ${vendor} only, with the miles driven in that period.`,
+  );
+  await expect(page.getByTestId("cell-lines-count")).toContainText(
+    `${events} repair line${events === 1 ? "" : "s"} opened 2023-01-01 to 2025-12-31 by ${vendor}`,
+  );
+  await page.getByRole("link", { name: "← This cohort's faults" }).click();
+  await expect(page).toHaveURL(/view=faults.*from=2023-01-01/);
+  await expect(page.getByLabel("Repairs from")).toHaveValue("2023-01-01");
 });
 
 test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-down, export", async ({
@@ -163,7 +181,16 @@ test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-d
   await narrow.getByLabel("Vendor").selectOption(vendor ?? "");
   await narrow.getByRole("button", { name: "Apply" }).click();
   await expect(page).toHaveURL(/vendor=/);
-  await expect(page.getByTestId("cell-lines-count")).toContainText("of the cell's");
+  // The figures above become that vendor's: the same number of repairs as lines listed.
+  await expect(page.getByTestId("cell-view")).toHaveText(
+    `For repairs by ${vendor} only, with the miles driven in that period.`,
+  );
+  const count = (await page.getByTestId("cell-lines-count").textContent()) ?? "";
+  expect(count).toMatch(new RegExp(`^\\d+ repair lines? by ${vendor}; `));
+  const repairs = page
+    .locator("dt", { hasText: /^Repairs$/ })
+    .locator("xpath=following-sibling::dd[1]");
+  await expect(repairs).toHaveText(/^\d+$/.exec(count.split(" ")[0] ?? "")?.[0] ?? "none");
   const narrowedCsv = await page.request.get(
     (await page.getByRole("link", { name: "Download CSV" }).getAttribute("href")) ?? "",
   );

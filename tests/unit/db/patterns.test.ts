@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, test } from "vitest";
 import type { Db } from "@/db";
+import { ensureCellView } from "@/db/queries/cell-views";
 import { getCellDetail, getHeatmap, getPatternOptions, faultKeyOf } from "@/db/queries/patterns";
 import { ForbiddenError, type OrgScope } from "@/db/queries/scope";
 import { findOrganisationBySlug } from "@/db/queries/system";
@@ -152,25 +153,44 @@ describe("getCellDetail", () => {
     }
   });
 
-  test("a period or a vendor narrows the repair lines and totals, not the statistics", async () => {
+  test("a period or a vendor narrows the repair lines, the totals and the statistics alike", async () => {
+    const tide = scopes.tidewater!;
     const key = { make: "Aurel", model: "Merlin", generation: "M2", band: 6, fault: "P0730" };
-    const all = (await getCellDetail(db, scopes.tidewater!, key))!;
+    const all = (await getCellDetail(db, tide, key))!;
     expect(all.isFiltered).toBe(false);
+    expect(all.isViewStats).toBe(false);
     const dates = all.lines.map((l) => l.openedOn).sort();
     const middle = dates[Math.floor(dates.length / 2)]!;
-    const later = (await getCellDetail(db, scopes.tidewater!, { ...key, from: middle }))!;
+    const later = (await getCellDetail(db, tide, { ...key, from: middle }))!;
     expect(later.isFiltered).toBe(true);
-    expect(later.cell).toEqual(all.cell);
+    expect(later.isViewStats).toBe(true);
     expect(later.lines.length).toBe(dates.filter((d) => d >= middle).length);
     expect(later.lines.length).toBeLessThan(all.lines.length);
-    const earlier = (await getCellDetail(db, scopes.tidewater!, { ...key, to: middle }))!;
+    // The statistics are the explorer's for the same view, and count the same repair lines.
+    const viewId = await ensureCellView(db, tide, { from: middle });
+    const map = await getHeatmap(db, tide, { view: "cohorts", fault: "P0730", viewId });
+    const viewCell = map.rows
+      .find((r) => r.label === "Aurel Merlin M2")!
+      .cells.find((c) => c.band === 6);
+    expect(later.cell).toEqual(viewCell);
+    expect(later.cell.events).toBe(later.lines.length);
+    expect(later.cell.exposureMi).toBeLessThan(all.cell.exposureMi);
+    const earlier = (await getCellDetail(db, tide, { ...key, to: middle }))!;
     expect(earlier.lines.every((l) => l.openedOn <= middle)).toBe(true);
+    expect(earlier.cell.events).toBe(earlier.lines.length);
     expect(later.totals.costCents).toBe(later.lines.reduce((s, l) => s + l.costCents, 0));
     expect(all.vendors.length).toBeGreaterThan(0);
     const vendor = all.vendors[0]!;
-    const one = (await getCellDetail(db, scopes.tidewater!, { ...key, vendor }))!;
+    const one = (await getCellDetail(db, tide, { ...key, vendor: vendor.toUpperCase() }))!;
     expect(one.lines.length).toBe(all.lines.filter((l) => l.vendor === vendor).length);
     expect(one.lines.length).toBeGreaterThan(0);
+    expect(one.cell.events).toBe(one.lines.length);
+    // A period with no miles driven in it has no cells: the whole history answers, flagged.
+    const none = (await getCellDetail(db, tide, { ...key, from: "1990-01-01", to: "1990-12-31" }))!;
+    expect(none.isFiltered).toBe(true);
+    expect(none.isViewStats).toBe(false);
+    expect(none.cell).toEqual(all.cell);
+    expect(none.lines).toEqual([]);
   });
 
   test("a cell of another organisation, or that does not exist, is null", async () => {

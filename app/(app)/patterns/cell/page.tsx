@@ -20,6 +20,19 @@ import { loadCell } from "./load-cell";
 
 export const metadata: Metadata = { title: "Pattern detail" };
 
+/** "opened 2024-01-01 to 2024-06-30 by Harbour Auto" from the drill-down's filters. */
+function viewWords(key: { from?: string; to?: string; vendor?: string }): string {
+  const period =
+    key.from && key.to
+      ? `opened ${key.from} to ${key.to}`
+      : key.from
+        ? `opened from ${key.from}`
+        : key.to
+          ? `opened up to ${key.to}`
+          : "";
+  return [period, key.vendor ? `by ${key.vendor}` : ""].filter(Boolean).join(" ");
+}
+
 export default async function CellPage({
   searchParams,
 }: {
@@ -61,7 +74,15 @@ export default async function CellPage({
         description={band}
         actions={
           <Link
-            href={`/patterns?make=${encodeURIComponent(key.make)}&model=${encodeURIComponent(key.model)}&generation=${encodeURIComponent(key.generation)}&view=faults`}
+            href={`/patterns?${new URLSearchParams({
+              make: key.make,
+              model: key.model,
+              generation: key.generation,
+              view: "faults",
+              ...(key.from ? { from: key.from } : {}),
+              ...(key.to ? { to: key.to } : {}),
+              ...(key.vendor ? { vendor: key.vendor } : {}),
+            }).toString()}`}
           >
             ← This cohort&apos;s faults
           </Link>
@@ -75,6 +96,13 @@ export default async function CellPage({
           {c.isSignal ? (
             <p className="mt-2 inline-block rounded bg-ochre-100 px-2 py-0.5 text-sm font-semibold text-ochre-700">
               Signal: stands out after false-discovery control (q = {formatSig(c.qValue, 2)})
+            </p>
+          ) : null}
+          {detail.isFiltered ? (
+            <p className="mt-2 text-sm" data-testid="cell-view">
+              {detail.isViewStats
+                ? `For repairs ${viewWords(key)} only, with the miles driven in that period.`
+                : `No exposure in this cohort and band for repairs ${viewWords(key)}: these figures are the whole history's.`}
             </p>
           ) : null}
           <CellFactsPanel cell={c} unit={unit} />
@@ -124,6 +152,9 @@ export default async function CellPage({
           reading, with {confidence}% limits (Lawless–Nadeau variance, log scale). Dashed lines:
           this band. Vehicles are counted from 0 {unit}, so histories that start later make the
           curve conservative.
+          {detail.isFiltered
+            ? " The curve covers every repair, whatever the period or vendor."
+            : ""}
         </p>
       </Panel>
       <Panel title="Vehicles affected" className="mt-4">
@@ -183,7 +214,7 @@ export default async function CellPage({
             {detail.lines.length} repair line{detail.lines.length === 1 ? "" : "s"}
             {detail.isCapped ? " (the latest 2,000)" : ""}
             {detail.isFiltered
-              ? ` of the cell's ${c.events}, in this period or from this vendor; cost and downtime above are for these lines. The statistics cover every repair.`
+              ? ` ${viewWords(key)}; cost and downtime above are for these lines.${detail.isViewStats ? "" : " The statistics cover every repair."}`
               : ""}
           </span>
           <a href={csv}>Download CSV</a>
