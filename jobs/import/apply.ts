@@ -1,6 +1,7 @@
 import type { InStatement } from "@libsql/client";
 import { isLocalFileDatabase, type Db } from "@/db";
 import type { ImportKind } from "@/db/schema";
+import { sqlInt } from "./sql-literal";
 
 /**
  * The second half of an import: staged rows move into the organisation's data in ONE atomic
@@ -10,11 +11,8 @@ import type { ImportKind } from "@/db/schema";
  * vehicle already on the roster) are skipped and counted.
  */
 
-/** Integers only are written into the SQL text; everything user-supplied stays in the tables. */
-function int(n: number): number {
-  if (!Number.isSafeInteger(n) || n <= 0) throw new Error(`apply: ${n} is not a valid id`);
-  return n;
-}
+/** Integers only are written into the SQL text (ids ≥ 1); user-supplied values stay in the tables. */
+const int = (n: number) => sqlInt(n, 1);
 
 const STAGED: Record<ImportKind, string> = {
   vehicles: "staged_vehicles",

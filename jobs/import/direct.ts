@@ -5,7 +5,7 @@ import type { TypedRow } from "@/lib/import";
 import { FingerprintMap } from "./fingerprint-set";
 import { rejectStatements, readRows, type ReadInput, type ReadResult, type RowSink } from "./read";
 import { writeRunProgress, hasRunCancel } from "./run-files";
-import { sqlLiteral, type SqlValue } from "./sql-literal";
+import { sqlInt, sqlLiteral, type SqlValue } from "./sql-literal";
 import { STAGING } from "./stage-rows";
 import type { ImportWriter } from "./writer";
 
@@ -29,21 +29,19 @@ export function isDirectKind(kind: ImportKind): kind is DirectKind {
 }
 
 /** Integers only are written into the SQL text as ids; everything else goes through sqlLiteral. */
-function int(n: number): number {
-  if (!Number.isSafeInteger(n) || n < 0) throw new Error(`direct import: ${n} is not a valid id`);
-  return n;
-}
+const int = (n: number) => sqlInt(n);
 
 /** Highest ids and whether the organisation already has records, read inside the transaction. */
 type Bases = { vehicles: number; orders: number; lines: number; events: number; hasOrders: number };
 
 async function readBases(writer: ImportWriter, kind: DirectKind, org: number): Promise<Bases> {
-  const events = kind === "faults" ? "fault_events" : "fuel_transactions";
+  const events =
+    kind === "repairs" ? "0" : `(select coalesce(max(id), 0) from ${EVENTS[kind].table})`;
   const [bases] = await writer.query<Bases>(
     `select (select coalesce(max(id), 0) from vehicles) as vehicles,
             (select coalesce(max(id), 0) from repair_orders) as orders,
             (select coalesce(max(id), 0) from repair_lines) as lines,
-            (select coalesce(max(id), 0) from ${events}) as events,
+            ${events} as events,
             exists (select 1 from repair_orders where organisation_id = ${org}) as hasOrders`,
   );
   if (!bases) throw new Error("direct import: could not read the id bases");
@@ -198,6 +196,8 @@ function directSink(
   imp: number,
   bases: Bases,
   generationOf: ReturnType<typeof generationFinder>,
+  /** After each chunk is with the writer: the reading's progress so far. */
+  onWrite: (progress: Parameters<RowSink["write"]>[1]) => void,
 ): RowSink & { odometerUpdates: () => string[] } {
   let nextVehicle = bases.vehicles;
   // Each vehicle's highest odometer and latest date among the rows read (its last reading).
@@ -321,15 +321,18 @@ function directSink(
         eventRows.push(imp);
       }
     },
+    // Small chunks keep the writer busy from the start and its backlog short at the end.
+    chunkRows: 2_000,
     get pending() {
       return pending;
     },
-    async write(issues) {
+    async write(issues, progress) {
       pending = 0;
       sendChunk();
       const rejects = rejectStatements({ organisationId: org, importId: imp }, issues);
       if (rejects.length) writer.run(rejects.join(";\n"));
       await writer.endChunk();
+      onWrite(progress);
     },
     /** UPDATEs that keep each touched vehicle's latest odometer reading current. */
     odometerUpdates() {
@@ -378,31 +381,28 @@ export async function readAndWrite(
     })
     .from(generationsTable)
     .where(eq(generationsTable.organisationId, org));
-  const sink = directSink(writer, input.kind, org, imp, bases, generationFinder(generations));
   let last = { bytesRead: 0, rowsTotal: 0, rejected: 0, warnings: 0, duplicatesInFile: 0 };
-  const writeProgress: RowSink["write"] = async (issues, p) => {
-    await sink.write(issues, p);
-    last = p;
-    writeRunProgress(input.storedPath, {
-      bytesRead: p.bytesRead,
-      rowsTotal: p.rowsTotal,
-      rowsRejected: p.rejected,
-      rowsWarning: p.warnings,
-      rowsDuplicate: p.duplicatesInFile,
-    });
-  };
+  const sink = directSink(
+    writer,
+    input.kind,
+    org,
+    imp,
+    bases,
+    generationFinder(generations),
+    (p) => {
+      last = p;
+      writeRunProgress(input.storedPath, {
+        bytesRead: p.bytesRead,
+        rowsTotal: p.rowsTotal,
+        rowsRejected: p.rejected,
+        rowsWarning: p.warnings,
+        rowsDuplicate: p.duplicatesInFile,
+      });
+    },
+  );
   // Reference data and vehicles are read on this thread's own connection: they are committed
   // data, and nobody can change them while the writer holds the lock.
-  const result = await readRows(db, input, {
-    // Small chunks keep the writer busy from the start and its backlog short at the end.
-    chunkRows: 2_000,
-    newVehicle: (r) => sink.newVehicle(r),
-    add: (n, v, id) => sink.add(n, v, id),
-    get pending() {
-      return sink.pending;
-    },
-    write: writeProgress,
-  });
+  const result = await readRows(db, input, sink);
   if (result.isCancelled || hasRunCancel(input.storedPath)) {
     return { ...result, isCancelled: true, imported: 0, vehiclesCreated: 0, writerBusyMs: {} };
   }

@@ -25,6 +25,13 @@ export function sqlLiteral(value: SqlValue): string {
   return `'${value.replaceAll("\u0000", "").replaceAll("'", "''")}'`;
 }
 
+/** A whole number written into SQL text (an id, a count): a safe integer of at least `min`. */
+export function sqlInt(n: number, min = 0): number {
+  if (!Number.isSafeInteger(n) || n < min)
+    throw new Error(`SQL text: ${n} is not a valid number here`);
+  return n;
+}
+
 /** INSERT statements for rows (arrays in the order of columns), at most rowsPerStatement each. */
 export function insertStatements(
   table: string,
