@@ -183,7 +183,7 @@ test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-d
   await expect(page).toHaveURL(/vendor=/);
   // The figures above become that vendor's: the same number of repairs as lines listed.
   await expect(page.getByTestId("cell-view")).toHaveText(
-    `For repairs by ${vendor} only, with the miles driven in that period.`,
+    `For repairs by ${vendor} only, against all the miles driven.`,
   );
   const count = (await page.getByTestId("cell-lines-count").textContent()) ?? "";
   expect(count).toMatch(new RegExp(`^\\d+ repair lines? by ${vendor}; `));

@@ -101,7 +101,7 @@ export default async function CellPage({
           {detail.isFiltered ? (
             <p className="mt-2 text-sm" data-testid="cell-view">
               {detail.isViewStats
-                ? `For repairs ${viewWords(key)} only, with the miles driven in that period.`
+                ? `For repairs ${viewWords(key)} only, ${key.from || key.to ? "with the miles driven in that period" : "against all the miles driven"}.`
                 : `No exposure in this cohort and band for repairs ${viewWords(key)}: these figures are the whole history's.`}
             </p>
           ) : null}
