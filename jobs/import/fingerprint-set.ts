@@ -113,6 +113,22 @@ export class FingerprintMap {
     return this.keys[2 * at] === 0 ? undefined : this.values[at];
   }
 
+  /**
+   * The value of `s`, or — when `s` is new — sets it to `value` and returns undefined: one hash
+   * for what would otherwise be a get and a set.
+   */
+  getOrSet(s: string, value: number): number | undefined {
+    if ((this.count + 1) * 4 > this.values.length * 3) this.grow();
+    const [a, b] = fingerprintPair(s);
+    const at = this.slot(a, b);
+    if (this.keys[2 * at] !== 0) return this.values[at];
+    this.keys[2 * at] = a === 0 ? 1 : a;
+    this.keys[2 * at + 1] = b;
+    this.values[at] = value;
+    this.count++;
+    return undefined;
+  }
+
   set(s: string, value: number): void {
     // Up to three quarters full: linear probing stays short, and the table a third smaller.
     if ((this.count + 1) * 4 > this.values.length * 3) this.grow();

@@ -1,3 +1,4 @@
+import { isUtf8 } from "node:buffer";
 import { createReadStream } from "node:fs";
 import { Transform } from "node:stream";
 import { parse } from "csv-parse";
@@ -89,28 +90,51 @@ function fileError(message: string): PermanentJobError {
   return new PermanentJobError(message);
 }
 
-/** Decodes UTF-8 strictly, so a file that turns out not to be UTF-8 further down is refused. */
+/**
+ * Bytes at the end of `b` that start a character whose remaining bytes are in the next chunk:
+ * the length of the part made of whole characters.
+ */
+function wholeCharacters(b: Buffer): number {
+  const n = b.length;
+  for (let back = 1; back <= Math.min(4, n); back++) {
+    const c = b[n - back] as number;
+    if ((c & 0xc0) === 0x80) continue; // a continuation byte: look further back
+    const length = c >= 0xf0 ? 4 : c >= 0xe0 ? 3 : c >= 0xc0 ? 2 : 1;
+    return length > back ? n - back : n;
+  }
+  return n;
+}
+
+/**
+ * Checks that the file is UTF-8 as it streams, so a file that turns out not to be UTF-8 further
+ * down is refused, and passes the bytes on unchanged (csv-parse reads bytes: decoding to text
+ * here would only be encoded again). A character cut between two chunks is checked with the
+ * next one.
+ */
 function strictUtf8(): Transform {
-  const decoder = new TextDecoder("utf-8", { fatal: true });
+  let carried: Buffer | null = null;
   return new Transform({
-    readableObjectMode: false,
     transform(chunk: Buffer, _enc, done) {
-      try {
-        done(null, decoder.decode(chunk, { stream: true }));
-      } catch {
+      const bytes = carried ? Buffer.concat([carried, chunk]) : chunk;
+      const whole = wholeCharacters(bytes);
+      carried = whole < bytes.length ? Buffer.from(bytes.subarray(whole)) : null;
+      const part = bytes.subarray(0, whole);
+      if (!isUtf8(part)) {
         done(
           fileError(
             "Part of the file is not UTF-8 text. Save it as CSV (UTF-8) and upload it again.",
           ),
         );
+        return;
       }
+      done(null, part);
     },
     flush(done) {
-      try {
-        done(null, decoder.decode());
-      } catch {
+      if (carried) {
         done(fileError("The file ends in the middle of a character: it is not valid UTF-8 text."));
+        return;
       }
+      done();
     },
   });
 }
@@ -302,7 +326,8 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
   source.on("data", (chunk) => {
     bytesRead += chunk.length;
   });
-  const parser = source.pipe(strictUtf8()).pipe(
+  const utf8 = strictUtf8();
+  const parser = source.pipe(utf8).pipe(
     parse({
       delimiter: input.delimiter,
       bom: true,
@@ -314,7 +339,9 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
     }),
   );
   const onError = (e: unknown) => parser.destroy(e instanceof Error ? e : new Error(String(e)));
+  // pipe() does not pass errors on: the file's and the UTF-8 check's end the parser's loop.
   source.on("error", onError);
+  utf8.on("error", onError);
 
   let isHeader = true;
   try {

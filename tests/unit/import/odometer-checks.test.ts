@@ -73,4 +73,20 @@ describe("FingerprintMap", () => {
     expect(map.get("RO-1")).toBeUndefined();
     expect(map.get("")).toBeUndefined();
   });
+
+  test("getOrSet gives the first value of a key and sets new keys, as a Map would", () => {
+    const map = new FingerprintMap();
+    const reference = new Map<string, number>();
+    let differences = 0;
+    for (let i = 0; i < 100_000; i++) {
+      // Every key comes back a few times, far apart: through the table's growth.
+      const ro = `RO-${(i * 7919) % 40_000}`;
+      const expected = reference.get(ro);
+      if (expected === undefined) reference.set(ro, i);
+      if (map.getOrSet(ro, i) !== expected) differences++;
+    }
+    expect(differences).toBe(0);
+    expect(map.size).toBe(reference.size);
+    expect(map.get("RO-0")).toBe(0);
+  });
 });

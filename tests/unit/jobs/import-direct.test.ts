@@ -85,6 +85,64 @@ describe.skipIf(isServerRun())("imports in one transaction on a local file", () 
     expect(existsSync(`${imp[0]?.stored_path}.progress.json`)).toBe(false);
   });
 
+  test("a file of several chunks lands whole: every order, line and code, in file order", async () => {
+    // 4,500 lines: past the sink's chunks (2,000 lines) and its pieces (300 rows), with orders
+    // of one to three lines, some lines of an order coming back after other orders.
+    const body: string[] = [];
+    const expected = {
+      orders: new Set<string>(),
+      lines: 0,
+      codes: 0,
+      lineNo: new Map<string, number>(),
+    };
+    for (let i = 0; body.length < 4_500; i++) {
+      const ro = i % 10 === 9 ? `K-${i - 5}` : `K-${i}`; // every tenth: a late line of an earlier order
+      const codes = i % 4 === 0 ? "P0171 P0174" : i % 4 === 1 ? "B1000" : "";
+      for (let l = 0; l < 1 + (i % 3) && body.length < 4_500; l++) {
+        body.push(
+          `${ro},U-${(i % 3) + 1},2025-08-01,${60_000 + i},Rough idle ${i}.${l},${codes},,,`,
+        );
+        expected.orders.add(ro);
+        expected.lines++;
+        expected.codes += codes ? codes.split(" ").length : 0;
+        expected.lineNo.set(ro, (expected.lineNo.get(ro) ?? 0) + 1);
+      }
+    }
+    const { importId, result } = await importText(
+      db,
+      scope,
+      "repairs",
+      [HEADER, ...body].join("\n"),
+    );
+    expect(result).toMatchObject({ status: "done", rowsTotal: 4_500, rowsImported: 4_500 });
+    const [counts] = await rows<{ orders: number; lines: number; codes: number }>(
+      db,
+      `select (select count(*) from repair_orders where import_id = ?1) as orders,
+              (select count(*) from repair_lines where import_id = ?1) as lines,
+              (select count(*) from repair_line_codes c join repair_lines l on l.id = c.repair_line_id
+                where l.import_id = ?1) as codes`,
+      [importId],
+    );
+    expect(counts).toEqual({
+      orders: expected.orders.size,
+      lines: expected.lines,
+      codes: expected.codes,
+    });
+    // Each order's lines are numbered 1, 2, … in file order, and the highest is its line count.
+    const numbering = await rows<{ ro: string; lines: number; top: number; gaps: number }>(
+      db,
+      `select o.ro_number as ro, count(*) as lines, max(l.line_no) as top,
+              sum(l.line_no <> (select count(*) from repair_lines x
+                                 where x.repair_order_id = o.id and x.id <= l.id)) as gaps
+         from repair_orders o join repair_lines l on l.repair_order_id = o.id
+        where o.import_id = ? group by o.id`,
+      [importId],
+    );
+    expect(numbering.filter((n) => n.gaps !== 0 || n.top !== n.lines)).toEqual([]);
+    expect(new Map(numbering.map((n) => [n.ro, n.lines]))).toEqual(expected.lineNo);
+    expect(await rows(db, "pragma foreign_key_check")).toEqual([]);
+  });
+
   test("a cancel while the transaction is open rolls everything back and is audited", async () => {
     const body = Array.from(
       { length: 40_000 },

@@ -272,6 +272,30 @@ describe("fault, fuel, vehicle, part and generation imports", () => {
   });
 });
 
+describe("characters cut between two chunks of the file", () => {
+  test("a four-byte character across the 64 KiB read boundary arrives whole", async () => {
+    // The file is read in chunks of 64 KiB (Node's default for file streams): the wrench emoji
+    // (U+1F527, four bytes in UTF-8) starts two bytes before the first boundary.
+    const rows1 = [HEADER];
+    for (let i = 0; Buffer.byteLength(rows1.join("\n")) < 65_000; i++) {
+      rows1.push(`W-${i},U-1,2025-02-01,${3000 + i},Noise,,,,,,,,,,`);
+    }
+    const head = `${rows1.join("\n")}\nW-x,U-1,2025-02-02,4000,Caf\u00e9 `;
+    const pad = "x".repeat(65_534 - Buffer.byteLength(head));
+    const complaint = `Caf\u00e9 ${pad}\u{1F527} rattle`;
+    const text = `${rows1.join("\n")}\nW-x,U-1,2025-02-02,4000,${complaint},,,,,,,,,,\n`;
+    expect(Buffer.from(text).subarray(65_534, 65_538)).toEqual(Buffer.from("\u{1F527}"));
+    const { importId, result } = await importText(db, scope, "repairs", text);
+    expect(result).toMatchObject({ status: "done", rowsTotal: rows1.length, rowsRejected: 0 });
+    const [line] = await rows<{ complaint: string }>(
+      db,
+      "select l.complaint from repair_lines l join repair_orders o on o.id = l.repair_order_id where o.ro_number = 'W-x' and l.import_id = ?",
+      [importId],
+    );
+    expect(line?.complaint).toBe(complaint);
+  });
+});
+
 describe("bad files: a clear message and nothing partial", () => {
   const expectNothingNew = async (fn: () => Promise<unknown>) => {
     const before = await count("repair_lines");
@@ -357,6 +381,26 @@ describe("bad files: a clear message and nothing partial", () => {
       const { result } = await importText(db, scope, "repairs", big);
       expect(result.status).toBe("failed");
       expect(result.error).toMatch(/longer than 1,000,000 characters/);
+    });
+  });
+
+  test("text that stops being UTF-8 past the inspected head fails the import cleanly", async () => {
+    await expectNothingNew(async () => {
+      // The mapping step reads the first 256 KB (jobs/import/storage.ts HEAD_BYTES); the
+      // Latin-1 "é" (0xE9 alone is not UTF-8, Unicode §3.9) comes after that, while reading.
+      const lines = [HEADER];
+      for (let i = 0; lines.join("\n").length < 300_000; i++) {
+        lines.push(`L-${i},U-1,2025-01-01,${1000 + i},Noise from the front,,,,,,,,,,`);
+      }
+      lines.push("L-last,U-1,2025-01-02,2000,Caf\xe9 smell,,,,,,,,,,");
+      const { result } = await importText(
+        db,
+        scope,
+        "repairs",
+        Buffer.from(lines.join("\n"), "latin1"),
+      );
+      expect(result.status).toBe("failed");
+      expect(result.error).toMatch(/not UTF-8/);
     });
   });
 
