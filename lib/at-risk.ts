@@ -1,3 +1,5 @@
+import { median as ssMedian } from "simple-statistics";
+
 /**
  * Expected failures of one fault over the next miles a vehicle drives: the cohort's rate per
  * mile in each mileage band, times the miles the vehicle will spend in that band (the
@@ -22,10 +24,7 @@ export function expectedFailures(
   return total;
 }
 
-/** The median of some numbers (0 for none). */
+/** The median of some numbers (0 for none); simple-statistics' median throws on none. */
 export function median(values: number[]): number {
-  if (values.length === 0) return 0;
-  const s = [...values].sort((a, b) => a - b);
-  const mid = (s.length - 1) / 2;
-  return (s[Math.floor(mid)]! + s[Math.ceil(mid)]!) / 2;
+  return values.length === 0 ? 0 : ssMedian(values);
 }

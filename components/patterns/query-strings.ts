@@ -86,6 +86,18 @@ export function explorerParams(raw: Record<string, string | undefined>): Explore
   } as ExplorerParams;
 }
 
+/** A period or vendor view as query-string pairs (the keys that are set), to carry into a link. */
+export function viewParams(
+  view: Pick<ExplorerParams, "from" | "to" | "vendor">,
+): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const k of ["from", "to", "vendor"] as const) {
+    const v = view[k];
+    if (v) out[k] = v;
+  }
+  return out;
+}
+
 /** Address of a cell's drill-down page; a period or vendor view carries on into it. */
 export function cellHref(
   c: {
@@ -106,10 +118,7 @@ export function cellHref(
     generation: c.generation,
     band: String(Math.round(c.bandFrom / width)),
     fault: c.dtc ?? c.component ?? "",
+    ...viewParams(view),
   });
-  for (const k of ["from", "to", "vendor"] as const) {
-    const v = view[k];
-    if (v) q.set(k, v);
-  }
   return `/patterns/cell?${q.toString()}`;
 }

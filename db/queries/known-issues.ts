@@ -1,5 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import escapeHtml from "escape-html";
 import type { Db, DbOrTx } from "@/db";
 import {
   components,
@@ -596,13 +597,6 @@ export async function changeKnownIssueState(
       detail: { from: issue.state, to: input.toState, reason: input.reason },
     });
   });
-}
-
-export function escapeHtml(s: string): string {
-  return s.replace(
-    /[&<>"']/g,
-    (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c] ?? c,
-  );
 }
 
 export async function addKnownIssueComment(

@@ -1,5 +1,6 @@
 import "server-only";
 import { eq, sql, type SQL } from "drizzle-orm";
+import escapeHtml from "escape-html";
 import type { Db } from "@/db";
 import {
   knownIssueFindings,
@@ -38,7 +39,7 @@ import { formatDistance, unitToMiles } from "@/lib/units";
 import { normaliseVin } from "@/lib/vin";
 import { recordAudit } from "./audit";
 import { queueEmail } from "./email";
-import { escapeHtml, getKnownIssue, type KnownIssueDetail } from "./known-issues";
+import { getKnownIssue, type KnownIssueDetail } from "./known-issues";
 import { assertCan, ConflictError, inOrg, NotFoundError, orgWhere, type OrgScope } from "./scope";
 
 const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));

@@ -1,5 +1,6 @@
 import "server-only";
 import { sql } from "drizzle-orm";
+import { median } from "@/lib/at-risk";
 import type { Db } from "@/db";
 import { planStock, type PartUse, type PlannerVehicle } from "@/lib/stocking";
 import { unitToMiles } from "@/lib/units";
@@ -86,12 +87,6 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
     // A span of a month or more, and a plausible pace (an odometer typo can fake 10,000 mi/day).
     if (days >= 30 && perDay >= 0 && perDay <= MAX_MILES_PER_DAY) own.set(Number(r.id), perDay);
   }
-  const median = (xs: number[]) => {
-    const s = [...xs].sort((a, b) => a - b);
-    return s.length === 0
-      ? 0
-      : (s[Math.floor((s.length - 1) / 2)]! + s[Math.ceil((s.length - 1) / 2)]!) / 2;
-  };
   const byCohort = new Map<string, number[]>();
   for (const r of rows) {
     const mpd = own.get(Number(r.id));

@@ -12,7 +12,7 @@ import { ConflictError, ForbiddenError, NotFoundError, type OrgScope } from "@/d
 import { findOrganisationBySlug } from "@/db/queries/system";
 import { loadDemo } from "@/db/seed/demo";
 import { recomputeOrganisation } from "@/jobs/recompute/recompute";
-import { expectedFailures } from "@/lib/at-risk";
+import { expectedFailures, median } from "@/lib/at-risk";
 import { createTestDb } from "../../support/test-db";
 
 describe("expectedFailures (piecewise-constant Poisson rate over bands)", () => {
@@ -112,5 +112,18 @@ describe("the at-risk watch-list and campaign lists on the demo", () => {
     await expect(
       getAtRiskVehicles(db, { ...fleet, role: "technician" }, { nextMiles: 1000 }),
     ).rejects.toBeInstanceOf(ForbiddenError);
+  });
+});
+
+describe("median", () => {
+  // The middle value, or the mean of the two middle values for an even count (NIST/SEMATECH
+  // e-Handbook of Statistical Methods, 1.3.5.1); none → 0 by Recurra's choice.
+  test("odd and even counts, unsorted input left as it was, and none", () => {
+    const xs = [9, 1, 5];
+    expect(median(xs)).toBe(5);
+    expect(xs).toEqual([9, 1, 5]);
+    expect(median([4, 1, 3, 2])).toBe(2.5);
+    expect(median([7])).toBe(7);
+    expect(median([])).toBe(0);
   });
 });

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { CellFactsPanel } from "@/components/patterns/cell-facts-panel";
 import { McfChart } from "@/components/patterns/mcf-chart";
+import { viewParams } from "@/components/patterns/query-strings";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { buttonClass, inputClass } from "@/components/ui/button";
@@ -79,9 +80,7 @@ export default async function CellPage({
               model: key.model,
               generation: key.generation,
               view: "faults",
-              ...(key.from ? { from: key.from } : {}),
-              ...(key.to ? { to: key.to } : {}),
-              ...(key.vendor ? { vendor: key.vendor } : {}),
+              ...viewParams(key),
             }).toString()}`}
           >
             ← This cohort&apos;s faults
