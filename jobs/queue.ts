@@ -3,9 +3,10 @@ import type { Db, DbOrTx } from "@/db";
 import { jobs } from "@/db/schema";
 
 /**
- * The job queue: rows in `jobs`, claimed by workers with a lease. Claiming is one UPDATE …
- * RETURNING, so two workers can never claim the same job; a worker that dies stops extending
- * its lease, and once the lease has expired another worker claims the job again.
+ * The job queue: rows in `jobs`, claimed by workers with a lease. Claiming is a read for a
+ * candidate, then an UPDATE … RETURNING that checks again, so two workers can never claim the
+ * same job; a worker that dies stops extending its lease, and once the lease has expired
+ * another worker claims the job again. An idle worker's poll only reads.
  */
 
 export type Job = typeof jobs.$inferSelect;
@@ -50,24 +51,32 @@ export async function claimJob(
       )})`
     : sql``;
   const idFilter = opts.jobId ? sql`and id = ${opts.jobId}` : sql``;
-  const rows = await db.all<Record<string, unknown>>(sql`
-    update jobs
-       set status = 'running', lease_owner = ${opts.workerId},
-           lease_expires_at = ${now + opts.leaseMs}, attempts = attempts + 1
-     where id = (
-       select id from jobs
-        where ((status = 'queued' and run_after <= ${now})
-            or (status = 'running' and lease_expires_at < ${now} and attempts < max_attempts))
-          ${kindFilter} ${idFilter}
-        order by id limit 1)
-    returning id`);
-  const id = rows[0]?.id;
-  if (id === undefined) return null;
-  const [job] = await db
-    .select()
-    .from(jobs)
-    .where(eq(jobs.id, Number(id)));
-  return job ?? null;
+  const isRunnable = sql`((status = 'queued' and run_after <= ${now})
+      or (status = 'running' and lease_expires_at < ${now} and attempts < max_attempts))`;
+  // Looked for first with a read, so an idle worker's poll never takes the write lock: a
+  // libSQL server rolls back a long write (an import's apply) when another client waits for
+  // its lock. Two workers can see the same candidate; the UPDATE checks again, so only one
+  // gets it, and the other tries the next one (each miss means another worker took a job, so
+  // this ends; the bound is only a guard).
+  for (let tries = 0; tries < 50; tries++) {
+    const [candidate] = await db.all<{ id: number }>(sql`
+      select id from jobs where ${isRunnable} ${kindFilter} ${idFilter} order by id limit 1`);
+    if (!candidate) return null;
+    const rows = await db.all<Record<string, unknown>>(sql`
+      update jobs
+         set status = 'running', lease_owner = ${opts.workerId},
+             lease_expires_at = ${now + opts.leaseMs}, attempts = attempts + 1
+       where id = ${Number(candidate.id)} and ${isRunnable}
+      returning id`);
+    const id = rows[0]?.id;
+    if (id === undefined) continue; // another worker was first
+    const [job] = await db
+      .select()
+      .from(jobs)
+      .where(eq(jobs.id, Number(id)));
+    return job ?? null;
+  }
+  return null;
 }
 
 /** Extends the lease (and records progress); false when the lease was lost to another worker. */
@@ -125,10 +134,14 @@ export async function failJob(
  */
 export async function reapAbandonedJobs(db: Db): Promise<Job[]> {
   const now = Date.now();
+  const isAbandoned = sql`status = 'running' and lease_expires_at < ${now} and attempts >= max_attempts`;
+  // A read first, so a poll with nothing to reap takes no write lock (see claimJob).
+  const [any] = await db.all<{ id: number }>(sql`select id from jobs where ${isAbandoned} limit 1`);
+  if (!any) return [];
   const rows = await db.all<{ id: number }>(sql`
     update jobs set status = 'failed', last_error = 'The worker stopped before finishing; no attempts left.',
            finished_at = strftime('%Y-%m-%dT%H:%M:%fZ','now'), lease_owner = null, lease_expires_at = null
-     where status = 'running' and lease_expires_at < ${now} and attempts >= max_attempts
+     where ${isAbandoned}
     returning id`);
   if (rows.length === 0) return [];
   return db

@@ -1,4 +1,5 @@
 import { spawn } from "node:child_process";
+import { createClient } from "@libsql/client";
 import { join } from "node:path";
 import { beforeAll, describe, expect, onTestFinished, test } from "vitest";
 import type { Db } from "@/db";
@@ -43,6 +44,26 @@ describe("job queue with leases", () => {
     expect(new Set(claimed).size).toBe(4);
     for (const c of claims)
       if (c) await completeJob(db, { id: c.id, workerId: c.leaseOwner ?? "" });
+  });
+
+  test("an idle poll only reads: it does not wait while another client holds the write lock", async () => {
+    // On a libSQL server a waiting writer gets a long write (an import's apply) rolled back;
+    // on a file it would wait out the busy timeout (10 s). Another client takes the lock here.
+    const other = createClient({ url });
+    const tx = await other.transaction("write");
+    try {
+      await tx.execute("update jobs set payload = payload where id = -1");
+      const started = performance.now();
+      expect(
+        await claimJob(db, { workerId: "idle", leaseMs: 60_000, kinds: ["none-queued"] }),
+      ).toBeNull();
+      expect(await reapAbandonedJobs(db)).toEqual([]);
+      expect(performance.now() - started).toBeLessThan(2_000);
+    } finally {
+      await tx.rollback();
+      tx.close();
+      other.close();
+    }
   });
 
   test("an expired lease is claimed again; the old owner can no longer extend it", async () => {
