@@ -51,15 +51,18 @@ export async function claimDueEmail(
   opts: { workerId: string; leaseMs: number; limit: number; now?: number },
 ): Promise<OutboxRow[]> {
   const now = opts.now ?? Date.now();
+  const isDue = sql`((status = 'queued' and next_attempt_at <= ${now})
+      or (status = 'sending' and lease_expires_at < ${now}))`;
+  // A read first, so a sweep with nothing due takes no write lock (as claimJob in jobs/queue.ts).
+  const [any] = await db.all<{ id: number }>(
+    sql`select id from email_outbox where ${isDue} limit 1`,
+  );
+  if (!any) return [];
   const rows = await db.all<{ id: number }>(sql`
     update email_outbox
        set status = 'sending', lease_owner = ${opts.workerId},
            lease_expires_at = ${now + opts.leaseMs}, attempts = attempts + 1
-     where id in (
-       select id from email_outbox
-        where (status = 'queued' and next_attempt_at <= ${now})
-           or (status = 'sending' and lease_expires_at < ${now})
-        order by id limit ${opts.limit})
+     where id in (select id from email_outbox where ${isDue} order by id limit ${opts.limit})
     returning id`);
   if (rows.length === 0) return [];
   return db

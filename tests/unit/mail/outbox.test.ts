@@ -1,3 +1,4 @@
+import { createClient } from "@libsql/client";
 import { and, eq } from "drizzle-orm";
 import nodemailer from "nodemailer";
 import { SMTPServer } from "smtp-server";
@@ -227,6 +228,22 @@ describe("retries and failures", () => {
 });
 
 describe("several deliverers sharing one database", () => {
+  test("a sweep with nothing due only reads: it does not wait for another client's write lock", async () => {
+    await db.delete(emailOutbox);
+    const other = createClient({ url });
+    const tx = await other.transaction("write");
+    try {
+      await tx.execute("update email_outbox set attempts = attempts where id = -1");
+      const started = performance.now();
+      expect(await claimDueEmail(db, { workerId: "idle", leaseMs: 60_000, limit: 5 })).toEqual([]);
+      expect(performance.now() - started).toBeLessThan(2_000);
+    } finally {
+      await tx.rollback();
+      tx.close();
+      other.close();
+    }
+  });
+
   test("two deliverers at once, each on its own connection, never send a message twice", async () => {
     const ids: number[] = [];
     for (let i = 0; i < 24; i++) ids.push(await queueEmail(db, mail(i)));
