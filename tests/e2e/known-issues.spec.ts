@@ -1,4 +1,4 @@
-import { expect, queryDb, screenshot, signIn, test } from "./support";
+import { expect, openTopRankedCell, queryDb, screenshot, signIn, test } from "./support";
 
 /** A 1×1 PNG (the smallest valid image), and a text file that only pretends to be one. */
 const PNG = Buffer.from(
@@ -11,12 +11,7 @@ test("a manager starts a known issue from a signal; it opens watching, with its 
 }) => {
   await signIn(page, "shopManager");
   await page.goto("/patterns?signals=1");
-  await page
-    .getByRole("table", { name: /Recurring failures ranked/ })
-    .getByRole("row")
-    .nth(1)
-    .getByRole("link")
-    .click();
+  await openTopRankedCell(page);
   await page.getByRole("link", { name: "Start a known issue from this" }).click();
   await expect(page).toHaveURL(/\/known-issues\/new\?/);
   const form = page.getByRole("form", { name: "Known issue" });

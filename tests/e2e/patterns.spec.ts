@@ -1,6 +1,6 @@
 import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "@playwright/test";
-import { expect, screenshot, signIn, test } from "./support";
+import { expect, openTopRankedCell, screenshot, signIn, test } from "./support";
 
 /** Serious and critical accessibility problems found by axe-core on the current page. */
 async function seriousViolations(page: Page) {
@@ -27,12 +27,7 @@ async function hoverCell(page: Page, rowLabel: string, columnLabel: string) {
 /** Opens the drill-down of the top-ranked cell of one fault. */
 async function openTopDrillDown(page: Page, fault: string) {
   await page.goto(`/patterns?fault=${fault}`);
-  await page
-    .getByRole("table", { name: /Recurring failures ranked/ })
-    .getByRole("row")
-    .nth(1)
-    .getByRole("link")
-    .click();
+  await openTopRankedCell(page);
 }
 
 test("a period and a vendor narrow the explorer to those repairs, kept in the address", async ({
@@ -217,12 +212,7 @@ test("the explorer and the drill-down have no serious accessibility problems (ax
   await page.goto("/patterns?fault=P0730");
   await expect(page.getByTestId("heatmap")).toBeVisible();
   expect(await seriousViolations(page)).toEqual([]);
-  await page
-    .getByRole("table", { name: /Recurring failures ranked/ })
-    .getByRole("row")
-    .nth(1)
-    .getByRole("link")
-    .click();
+  await openTopRankedCell(page);
   await expect(page.getByTestId("cell-sentence")).toBeVisible();
   expect(await seriousViolations(page)).toEqual([]);
 });

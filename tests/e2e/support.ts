@@ -74,3 +74,13 @@ export async function orgId(slug: string): Promise<number> {
   if (!row) throw new Error(`no organisation ${slug}`);
   return Number(row.id);
 }
+
+/** Opens the drill-down of the first row of the explorer's ranked table on the current page. */
+export async function openTopRankedCell(page: Page) {
+  await page
+    .getByRole("table", { name: /Recurring failures ranked/ })
+    .getByRole("row")
+    .nth(1)
+    .getByRole("link")
+    .click();
+}
