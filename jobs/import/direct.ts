@@ -126,24 +126,14 @@ class FileOrders {
     return this.index.size;
   }
 
-  private lastRo = "";
-  private lastOrder = -1;
-
   /**
    * The order of an RO number, and whether this line is its first: a new RO number becomes the
-   * next order, with this line's vehicle and odometer. The lines of one RO usually come one
-   * after another, so the last RO number is remembered without hashing.
+   * next order, with this line's vehicle and odometer.
    */
   findOrAdd(ro: string, vehicleId: number, odometer: number | null): { n: number; isNew: boolean } {
-    if (ro === this.lastRo) return { n: this.lastOrder, isNew: false };
     const n = this.index.size;
     const found = this.index.getOrSet(ro, n);
-    this.lastRo = ro;
-    if (found !== undefined) {
-      this.lastOrder = found;
-      return { n: found, isNew: false };
-    }
-    this.lastOrder = n;
+    if (found !== undefined) return { n: found, isNew: false };
     if (n === this.vehicle.length) {
       const grow = <T extends Int32Array | Float64Array>(a: T): T => {
         const b = new (a.constructor as new (n: number) => T)(a.length * 2);
@@ -266,30 +256,29 @@ function directSink(
   const orderRows = new RowPieces(ORDER_COLUMNS.length);
   const lineRows = new RowPieces(LINE_COLUMNS.length);
   const eventRows = new RowPieces(kind === "repairs" ? 0 : EVENTS[kind].columns.length);
-  let hasLines = false;
   let firstLineOfChunk = nextLine + 1;
   let pending = 0;
   // With no repair orders in the organisation before this import (which holds the write lock),
   // none can be a duplicate of one already loaded: the existence checks are skipped.
   const checkExisting = bases.hasOrders !== 0;
+  // An RO number already in the organisation's data is not loaded again, nor its lines.
+  const orderWhere = checkExisting
+    ? `not exists (select 1 from repair_orders o where o.organisation_id = ${org} and o.ro_number = column4)`
+    : undefined;
+  const lineWhere = checkExisting
+    ? `exists (select 1 from repair_orders o where o.id = column3 and o.import_id = ${imp})`
+    : undefined;
 
   const sendChunk = () => {
     for (const piece of vehicleRows.take()) writer.insert("vehicles", VEHICLE_COLUMNS, piece);
     if (kind === "repairs") {
-      // An RO number already in the organisation's data is not loaded again, nor its lines.
-      const orderWhere = checkExisting
-        ? `not exists (select 1 from repair_orders o where o.organisation_id = ${org} and o.ro_number = column4)`
-        : undefined;
       for (const piece of orderRows.take()) {
         writer.insert("repair_orders", ORDER_COLUMNS, piece, { where: orderWhere });
       }
-      const lineWhere = checkExisting
-        ? `exists (select 1 from repair_orders o where o.id = column3 and o.import_id = ${imp})`
-        : undefined;
       for (const piece of lineRows.take()) {
         writer.insert("repair_lines", LINE_COLUMNS, piece, { where: lineWhere });
       }
-      if (hasLines) {
+      if (nextLine >= firstLineOfChunk) {
         // DTCs are checked against SAE J2012 while reading ([0-9A-Z] only), so the
         // space-separated list becomes a JSON array by plain replacement.
         writer.run(
@@ -309,7 +298,6 @@ function directSink(
         writer.insert(table, columns, piece, { onConflict: true });
       }
     }
-    hasLines = false;
     firstLineOfChunk = nextLine + 1;
   };
 
@@ -367,7 +355,6 @@ function directSink(
         for (let i = LINE_OWN_FROM; i < v.length; i++) line.push(cell(v[i]));
         line.push(imp);
         lineRows.endRow();
-        hasLines = true;
       } else {
         touch(vehicleId, v[5], v[6]);
         const event = eventRows.current;

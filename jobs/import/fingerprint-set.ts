@@ -122,10 +122,7 @@ export class FingerprintMap {
     const [a, b] = fingerprintPair(s);
     const at = this.slot(a, b);
     if (this.keys[2 * at] !== 0) return this.values[at];
-    this.keys[2 * at] = a === 0 ? 1 : a;
-    this.keys[2 * at + 1] = b;
-    this.values[at] = value;
-    this.count++;
+    this.fill(at, a, b, value);
     return undefined;
   }
 
@@ -150,12 +147,16 @@ export class FingerprintMap {
 
   private put(a: number, b: number, value: number): void {
     const at = this.slot(a, b);
-    if (this.keys[2 * at] === 0) {
-      this.keys[2 * at] = a === 0 ? 1 : a;
-      this.keys[2 * at + 1] = b;
-      this.count++;
-    }
+    if (this.keys[2 * at] === 0) this.fill(at, a, b, value);
+    else this.values[at] = value;
+  }
+
+  /** Puts (a, b) → value into the empty slot `at`. */
+  private fill(at: number, a: number, b: number, value: number): void {
+    this.keys[2 * at] = a === 0 ? 1 : a;
+    this.keys[2 * at + 1] = b;
     this.values[at] = value;
+    this.count++;
   }
 
   private grow(): void {
