@@ -32,6 +32,15 @@ export async function waitForHealth(url: string, timeoutMs: number): Promise<voi
 }
 
 /**
+ * How long the server keeps an idle connection open. Node's default is 5 s, and Playwright's
+ * request context keeps sockets in a pool without reading the server's `Keep-Alive: timeout`
+ * answer: a request sent on a pooled socket just as the server closes it fails with
+ * `read ECONNRESET` (microsoft/playwright#42701). Tests idle far less than a minute between
+ * requests, so a 65 s timeout keeps every pooled socket usable.
+ */
+export const KEEP_ALIVE_MS = 65_000;
+
+/**
  * `next start` of the production build on a free loopback port, in its own process group so
  * that `stop()` ends it with every child. Its output is kept in `logs`.
  */
@@ -45,7 +54,16 @@ export async function startNext(env: NodeJS.ProcessEnv): Promise<{
   const baseURL = `http://127.0.0.1:${port}`;
   const server = spawn(
     "npx",
-    ["next", "start", "--hostname", "127.0.0.1", "--port", String(port)],
+    [
+      "next",
+      "start",
+      "--hostname",
+      "127.0.0.1",
+      "--port",
+      String(port),
+      "--keepAliveTimeout",
+      String(KEEP_ALIVE_MS),
+    ],
     {
       env: { ...env, NEXTAUTH_URL: baseURL },
       stdio: ["ignore", "pipe", "pipe"],
