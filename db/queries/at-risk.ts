@@ -56,7 +56,7 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
   const rates = await ratesByCohortFault(db, scope);
   // The organisation's labour rate: the median of labour cost per hour on its repair lines.
   const labour = await db.all<{ per_hour: number }>(sql`
-    select labor_cost_cents * 1.0 / labor_hours as per_hour from repair_lines
+    select labor_cost_cents * 1.0 / labor_hours as per_hour from visible_repair_lines
      where organisation_id = ${scope.organisationId} and labor_hours > 0 and labor_cost_cents > 0`);
   const labourPerHourCents = median(labour.map((l) => Number(l.per_hour)));
   const rows: AtRiskRow[] = [];
@@ -77,7 +77,7 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
     );
     const [past] = issue.component
       ? await db.all<{ avg: number | null }>(sql`
-          select avg(l.parts_cost_cents) as avg from repair_lines l
+          select avg(l.parts_cost_cents) as avg from visible_repair_lines l
            where l.organisation_id = ${scope.organisationId} and l.parts_cost_cents is not null
              and l.component_id = (select id from components where slug = ${issue.component.slug})`)
       : [];
@@ -131,12 +131,12 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
     const fixes = (line: string) =>
       c.component_id !== null
         ? sql.raw(`${line}.component_id = ${Number(c.component_id)}`)
-        : sql`exists (select 1 from repair_line_codes rc where rc.repair_line_id = ${sql.raw(`${line}.id`)} and rc.dtc = ${c.dtc})`;
+        : sql`exists (select 1 from visible_repair_line_codes rc where rc.repair_line_id = ${sql.raw(`${line}.id`)} and rc.dtc = ${c.dtc})`;
     const cohort = sql`v.make = ${c.make} and v.model = ${c.model}
       and coalesce((select label from generations g where g.id = v.generation_id), cast(v.model_year as text)) = ${c.label}`;
     const [cost] = await db.all<{ avg: number | null }>(sql`
       select avg(coalesce(l.parts_cost_cents, 0) + coalesce(l.labor_cost_cents, 0)) as avg
-        from repair_lines l join vehicles v on v.id = l.vehicle_id
+        from visible_repair_lines l join vehicles v on v.id = l.vehicle_id
        where l.organisation_id = ${scope.organisationId} and ${cohort} and ${fixes("l")}`);
     const vehiclesAtRisk = await db.all<{
       id: number;
@@ -147,7 +147,7 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
       select v.id, v.unit_number, v.vin, v.last_odometer_mi as odometer from vehicles v
        where v.organisation_id = ${scope.organisationId} and ${cohort}
          and v.last_odometer_mi >= ${c.band_from_mi - bandWidthMi} and v.last_odometer_mi < ${c.band_to_mi}
-         and not exists (select 1 from repair_lines l where l.vehicle_id = v.id
+         and not exists (select 1 from visible_repair_lines l where l.vehicle_id = v.id
                and l.odometer_mi >= ${c.band_from_mi} and l.odometer_mi < ${c.band_to_mi} and ${fixes("l")})`);
     const byBand = rates.get(`${c.make}|${c.model}|${c.label}|${c.fault_key}`) ?? new Map();
     for (const r of vehiclesAtRisk) {

@@ -22,7 +22,7 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
     as_of: string | null;
   }>(sql`
     select o.comeback_days, o.comeback_distance, o.distance_unit,
-           (select max(opened_on) from repair_lines where organisation_id = ${scope.organisationId}) as as_of
+           (select max(opened_on) from visible_repair_lines where organisation_id = ${scope.organisationId}) as as_of
       from organisations o where o.id = ${scope.organisationId}`);
   if (!org) throw new Error("getComebackReport: organisation missing");
   // Paged by id: one response stays well under a libSQL server's response limit (10 MB).
@@ -48,12 +48,12 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
     const page = await db.all<Row>(sql`
     select rl.id, rl.repair_order_id, ro.ro_number, rl.vehicle_id, rl.opened_on,
            coalesce(rl.odometer_mi, ro.odometer_mi) as odometer_mi,
-           (select group_concat(c.dtc, ' ') from repair_line_codes c
+           (select group_concat(c.dtc, ' ') from visible_repair_line_codes c
              where c.repair_line_id = rl.id and c.organisation_id = ${scope.organisationId}) as codes,
            k.slug, k.system, k.name, rl.complaint, rl.cause, rl.correction, rl.technician,
            coalesce(rl.vendor, ro.vendor) as vendor
-      from repair_lines rl
-      join repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
+      from visible_repair_lines rl
+      join visible_repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
       left join components k on k.id = rl.component_id
      where rl.organisation_id = ${scope.organisationId} and rl.id > ${after}
      order by rl.id limit ${PAGE}`);

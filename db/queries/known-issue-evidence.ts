@@ -30,7 +30,7 @@ function cohortSql(issue: IssueScope): SQL {
 export function faultSql(issue: Pick<IssueScope, "dtcCodes" | "component">): SQL {
   const parts: SQL[] = [];
   if (issue.dtcCodes.length > 0) {
-    parts.push(sql`exists (select 1 from repair_line_codes rc where rc.repair_line_id = l.id
+    parts.push(sql`exists (select 1 from visible_repair_line_codes rc where rc.repair_line_id = l.id
       and rc.dtc in (${sql.join(
         issue.dtcCodes.map((d) => sql`${d}`),
         sql`, `,
@@ -144,7 +144,7 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
     odometer_mi: number | null;
   }>(sql`
     select l.id, l.vehicle_id, l.opened_on, l.odometer_mi
-      from repair_lines l join vehicles v on v.id = l.vehicle_id
+      from visible_repair_lines l join vehicles v on v.id = l.vehicle_id
      where l.organisation_id = ${scope.organisationId} and ${cohortSql(issue)} and ${faultSql(issue)}`);
   const inRange = (mi: number | null) =>
     (issue.mileageFromMi === null || (mi !== null && mi >= issue.mileageFromMi)) &&

@@ -206,10 +206,10 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
   const rows = await db.all<Record<string, unknown>>(sql`
     select l.id, l.vehicle_id, l.opened_on, l.odometer_mi, k.slug as component, l.symptom,
            l.labor_hours, l.part_numbers, l.correction,
-           (select group_concat(rc.dtc, ' ') from repair_line_codes rc where rc.repair_line_id = l.id) as codes,
+           (select group_concat(rc.dtc, ' ') from visible_repair_line_codes rc where rc.repair_line_id = l.id) as codes,
            exists (select 1 from known_issue_findings f
                     where f.organisation_id = ${org} and f.repair_line_id = l.id) as from_finding
-      from repair_lines l
+      from visible_repair_lines l
       join vehicles v on v.id = l.vehicle_id
       left join components k on k.id = l.component_id
      where l.organisation_id = ${scope.organisationId} and v.organisation_id = ${org} and ${cohortSql(vehicle)}`);

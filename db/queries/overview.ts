@@ -1,7 +1,13 @@
 import "server-only";
 import { desc } from "drizzle-orm";
 import type { Db } from "@/db";
-import { faultEvents, fuelTransactions, imports, repairOrders, vehicles } from "@/db/schema";
+import {
+  imports,
+  vehicles,
+  visibleFaultEvents,
+  visibleFuelTransactions,
+  visibleRepairOrders,
+} from "@/db/schema";
 import { assertCan, countRows, orgWhere, type OrgScope } from "./scope";
 
 export type Overview = {
@@ -17,9 +23,9 @@ export async function getOverview(db: Db, scope: OrgScope): Promise<Overview> {
   assertCan(scope, "dashboard:read");
   const [v, ro, fe, fu, last] = await Promise.all([
     countRows(db, vehicles, orgWhere(vehicles, scope)),
-    countRows(db, repairOrders, orgWhere(repairOrders, scope)),
-    countRows(db, faultEvents, orgWhere(faultEvents, scope)),
-    countRows(db, fuelTransactions, orgWhere(fuelTransactions, scope)),
+    countRows(db, visibleRepairOrders, orgWhere(visibleRepairOrders, scope)),
+    countRows(db, visibleFaultEvents, orgWhere(visibleFaultEvents, scope)),
+    countRows(db, visibleFuelTransactions, orgWhere(visibleFuelTransactions, scope)),
     db
       .select({
         fileName: imports.fileName,

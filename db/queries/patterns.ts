@@ -199,7 +199,7 @@ export type CellKey = {
 function cellLines(scope: OrgScope, key: CellKey, bandWidthMi: number) {
   const fk = faultKeyOf(key.fault);
   const fault = fk.startsWith("dtc:")
-    ? sql`exists (select 1 from repair_line_codes rc where rc.repair_line_id = l.id and rc.dtc = ${fk.slice(4)})`
+    ? sql`exists (select 1 from visible_repair_line_codes rc where rc.repair_line_id = l.id and rc.dtc = ${fk.slice(4)})`
     : fk.startsWith("component:")
       ? sql`l.component_id = (select id from components where slug = ${fk.slice(10)})`
       : sql`(l.component_id is not null or l.dtc_codes is not null)`;
@@ -245,8 +245,8 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
     select l.id, o.id as order_id, o.ro_number, l.vehicle_id, v.unit_number, v.vin, l.opened_on, o.closed_on,
            l.odometer_mi, l.complaint, l.cause, l.correction, l.dtc_codes, l.parts_cost_cents, l.labor_cost_cents,
            l.labor_hours, l.technician, coalesce(l.vendor, o.vendor) as vendor
-      from repair_lines l
-      join repair_orders o on o.id = l.repair_order_id
+      from visible_repair_lines l
+      join visible_repair_orders o on o.id = l.repair_order_id
       join vehicles v on v.id = l.vehicle_id
       left join generations g on g.id = v.generation_id
      where ${cellLines(scope, key, bandWidthMi)}
@@ -258,7 +258,7 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
      limit 2000`);
   const vendorRows = await db.all<{ vendor: string }>(sql`
     select distinct l.vendor
-      from repair_lines l
+      from visible_repair_lines l
       join vehicles v on v.id = l.vehicle_id
       left join generations g on g.id = v.generation_id
      where ${cellLines(scope, key, bandWidthMi)} and l.vendor is not null
@@ -271,7 +271,7 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
        and coalesce(g.label, cast(v.model_year as text)) = ${key.generation}`);
   const faultAll = { ...key, band: 0 };
   const cohortEvents = await db.all<{ vehicle_id: number; odometer_mi: number }>(sql`
-    select l.vehicle_id, l.odometer_mi from repair_lines l
+    select l.vehicle_id, l.odometer_mi from visible_repair_lines l
       join vehicles v on v.id = l.vehicle_id left join generations g on g.id = v.generation_id
      where ${cellLines(scope, faultAll, Number.MAX_SAFE_INTEGER / 4)} and l.odometer_mi is not null`);
   const eventsByVehicle = new Map<number, number[]>();

@@ -124,13 +124,13 @@ export async function getRefuelAnalysis(
   }>(sql`
     select rl.repair_order_id, ro.ro_number, rl.vehicle_id, min(rl.opened_on) as opened_on,
            coalesce(min(rl.odometer_mi), ro.odometer_mi) as odometer_mi, min(rl.symptom) as symptom
-      from repair_lines rl
-      join repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
+      from visible_repair_lines rl
+      join visible_repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
      where rl.organisation_id = ${scope.organisationId} and rl.symptom in (${symptomList})
      group by rl.repair_order_id
      order by rl.vehicle_id, opened_on`);
   const fills = await db.all<{ vehicle_id: number; odometer_mi: number }>(sql`
-    select vehicle_id, odometer_mi from fuel_transactions
+    select vehicle_id, odometer_mi from visible_fuel_transactions
      where organisation_id = ${scope.organisationId} and odometer_mi is not null`);
   const knownIssueRows = await db.all<{
     id: number;
@@ -187,7 +187,7 @@ export async function getRefuelAnalysis(
         odometer_mi: number | null;
         dtc: string;
       }>(sql`
-        select id, vehicle_id, occurred_at, odometer_mi, dtc from fault_events
+        select id, vehicle_id, occurred_at, odometer_mi, dtc from visible_fault_events
          where organisation_id = ${scope.organisationId}
            and dtc in (${sql.join(
              allCodes.map((c) => sql`${c}`),

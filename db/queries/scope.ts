@@ -1,5 +1,5 @@
 import { and, eq, sql, type SQL } from "drizzle-orm";
-import type { SQLiteColumn, SQLiteTable } from "drizzle-orm/sqlite-core";
+import type { SQLiteColumn, SQLiteTable, SQLiteView } from "drizzle-orm/sqlite-core";
 import type { DbOrTx } from "@/db";
 import type { Role } from "@/db/schema";
 import { can, type Capability } from "@/lib/auth/roles";
@@ -59,10 +59,10 @@ export function inOrg<T extends object>(
   return { ...values, organisationId: scope.organisationId };
 }
 
-/** Number of rows of a table matching a WHERE clause (build it with orgWhere). */
+/** Number of rows of a table or view matching a WHERE clause (build it with orgWhere). */
 export async function countRows(
   db: { select: DbOrTx["select"] },
-  table: SQLiteTable,
+  table: SQLiteTable | SQLiteView,
   where: SQL,
 ): Promise<number> {
   const [row] = await db

@@ -52,16 +52,16 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
     last_mi: number | null;
   }>(sql`
     with readings as (
-      select vehicle_id, opened_on as day, odometer_mi from repair_orders
+      select vehicle_id, opened_on as day, odometer_mi from visible_repair_orders
        where organisation_id = ${scope.organisationId} and odometer_mi is not null
       union all
-      select vehicle_id, substr(occurred_at, 1, 10), odometer_mi from fault_events
+      select vehicle_id, substr(occurred_at, 1, 10), odometer_mi from visible_fault_events
        where organisation_id = ${scope.organisationId} and odometer_mi is not null
       union all
-      select vehicle_id, substr(filled_at, 1, 10), odometer_mi from fuel_transactions
+      select vehicle_id, substr(filled_at, 1, 10), odometer_mi from visible_fuel_transactions
        where organisation_id = ${scope.organisationId} and odometer_mi is not null
       union all
-      select vehicle_id, read_on, odometer_mi from odometer_readings
+      select vehicle_id, read_on, odometer_mi from visible_odometer_readings
        where organisation_id = ${scope.organisationId}
     ),
     spans as (
@@ -136,7 +136,7 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
   }>(sql`
     select v.make || '|' || v.model || '|' || coalesce(g.label, cast(v.model_year as text)) as cohort,
            k.slug, l.part_numbers, count(*) as n
-      from repair_lines l
+      from visible_repair_lines l
       join vehicles v on v.id = l.vehicle_id
       left join generations g on g.id = v.generation_id
       join components k on k.id = l.component_id

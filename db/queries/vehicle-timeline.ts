@@ -7,14 +7,14 @@ import {
   cellStats,
   components,
   dtcCodes,
-  faultEvents,
-  fuelTransactions,
   generations,
-  odometerReadings,
-  repairLineCodes,
-  repairLines,
-  repairOrders,
   vehicles,
+  visibleFaultEvents,
+  visibleFuelTransactions,
+  visibleOdometerReadings,
+  visibleRepairLineCodes,
+  visibleRepairLines,
+  visibleRepairOrders,
   type FaultStatus,
   type Symptom,
 } from "@/db/schema";
@@ -233,109 +233,117 @@ export async function getVehicleTimeline(
     await Promise.all([
       db
         .select({
-          id: repairLines.id,
-          repairOrderId: repairLines.repairOrderId,
-          roNumber: repairOrders.roNumber,
-          lineNo: repairLines.lineNo,
-          openedOn: repairLines.openedOn,
-          closedOn: repairOrders.closedOn,
-          odometerMi: repairLines.odometerMi,
-          complaint: repairLines.complaint,
-          cause: repairLines.cause,
-          correction: repairLines.correction,
-          componentId: repairLines.componentId,
+          id: visibleRepairLines.id,
+          repairOrderId: visibleRepairLines.repairOrderId,
+          roNumber: visibleRepairOrders.roNumber,
+          lineNo: visibleRepairLines.lineNo,
+          openedOn: visibleRepairLines.openedOn,
+          closedOn: visibleRepairOrders.closedOn,
+          odometerMi: visibleRepairLines.odometerMi,
+          complaint: visibleRepairLines.complaint,
+          cause: visibleRepairLines.cause,
+          correction: visibleRepairLines.correction,
+          componentId: visibleRepairLines.componentId,
           componentSlug: components.slug,
           componentSystem: components.system,
           componentName: components.name,
-          symptom: repairLines.symptom,
-          laborHours: repairLines.laborHours,
-          partsCostCents: repairLines.partsCostCents,
-          laborCostCents: repairLines.laborCostCents,
-          partNumbers: repairLines.partNumbers,
-          technician: repairLines.technician,
-          vendor: sql<string | null>`coalesce(${repairLines.vendor}, ${repairOrders.vendor})`,
-          isWarranty: repairLines.isWarranty,
+          symptom: visibleRepairLines.symptom,
+          laborHours: visibleRepairLines.laborHours,
+          partsCostCents: visibleRepairLines.partsCostCents,
+          laborCostCents: visibleRepairLines.laborCostCents,
+          partNumbers: visibleRepairLines.partNumbers,
+          technician: visibleRepairLines.technician,
+          vendor: sql<
+            string | null
+          >`coalesce(${visibleRepairLines.vendor}, ${visibleRepairOrders.vendor})`,
+          isWarranty: visibleRepairLines.isWarranty,
         })
-        .from(repairLines)
+        .from(visibleRepairLines)
         .innerJoin(
-          repairOrders,
+          visibleRepairOrders,
           and(
-            eq(repairOrders.id, repairLines.repairOrderId),
-            eq(repairOrders.organisationId, scope.organisationId),
+            eq(visibleRepairOrders.id, visibleRepairLines.repairOrderId),
+            eq(visibleRepairOrders.organisationId, scope.organisationId),
           ),
         )
-        .leftJoin(components, eq(components.id, repairLines.componentId))
-        .where(orgWhere(repairLines, scope, ofVehicle(repairLines.vehicleId)))
+        .leftJoin(components, eq(components.id, visibleRepairLines.componentId))
+        .where(orgWhere(visibleRepairLines, scope, ofVehicle(visibleRepairLines.vehicleId)))
         .orderBy(
-          asc(repairLines.openedOn),
-          asc(repairLines.repairOrderId),
-          asc(repairLines.lineNo),
-          asc(repairLines.id),
+          asc(visibleRepairLines.openedOn),
+          asc(visibleRepairLines.repairOrderId),
+          asc(visibleRepairLines.lineNo),
+          asc(visibleRepairLines.id),
         ),
       db
-        .select({ lineId: repairLineCodes.repairLineId, dtc: repairLineCodes.dtc })
-        .from(repairLineCodes)
-        .where(orgWhere(repairLineCodes, scope, ofVehicle(repairLineCodes.vehicleId)))
-        .orderBy(asc(repairLineCodes.id)),
+        .select({ lineId: visibleRepairLineCodes.repairLineId, dtc: visibleRepairLineCodes.dtc })
+        .from(visibleRepairLineCodes)
+        .where(orgWhere(visibleRepairLineCodes, scope, ofVehicle(visibleRepairLineCodes.vehicleId)))
+        .orderBy(asc(visibleRepairLineCodes.id)),
       db
         .select({
-          id: faultEvents.id,
-          occurredAt: faultEvents.occurredAt,
-          odometerMi: faultEvents.odometerMi,
-          dtc: faultEvents.dtc,
+          id: visibleFaultEvents.id,
+          occurredAt: visibleFaultEvents.occurredAt,
+          odometerMi: visibleFaultEvents.odometerMi,
+          dtc: visibleFaultEvents.dtc,
           description: dtcCodes.description,
-          milOn: faultEvents.milOn,
-          status: faultEvents.status,
+          milOn: visibleFaultEvents.milOn,
+          status: visibleFaultEvents.status,
         })
-        .from(faultEvents)
-        .leftJoin(dtcCodes, eq(dtcCodes.code, faultEvents.dtc))
-        .where(orgWhere(faultEvents, scope, ofVehicle(faultEvents.vehicleId)))
-        .orderBy(desc(faultEvents.occurredAt), desc(faultEvents.id))
+        .from(visibleFaultEvents)
+        .leftJoin(dtcCodes, eq(dtcCodes.code, visibleFaultEvents.dtc))
+        .where(orgWhere(visibleFaultEvents, scope, ofVehicle(visibleFaultEvents.vehicleId)))
+        .orderBy(desc(visibleFaultEvents.occurredAt), desc(visibleFaultEvents.id))
         .limit(TIMELINE_RECORD_LIMIT),
       db
         .select({
-          id: fuelTransactions.id,
-          filledAt: fuelTransactions.filledAt,
-          odometerMi: fuelTransactions.odometerMi,
-          volumeL: fuelTransactions.volumeL,
-          priceTotalCents: fuelTransactions.priceTotalCents,
-          station: fuelTransactions.station,
+          id: visibleFuelTransactions.id,
+          filledAt: visibleFuelTransactions.filledAt,
+          odometerMi: visibleFuelTransactions.odometerMi,
+          volumeL: visibleFuelTransactions.volumeL,
+          priceTotalCents: visibleFuelTransactions.priceTotalCents,
+          station: visibleFuelTransactions.station,
         })
-        .from(fuelTransactions)
-        .where(orgWhere(fuelTransactions, scope, ofVehicle(fuelTransactions.vehicleId)))
-        .orderBy(desc(fuelTransactions.filledAt), desc(fuelTransactions.id))
+        .from(visibleFuelTransactions)
+        .where(
+          orgWhere(visibleFuelTransactions, scope, ofVehicle(visibleFuelTransactions.vehicleId)),
+        )
+        .orderBy(desc(visibleFuelTransactions.filledAt), desc(visibleFuelTransactions.id))
         .limit(TIMELINE_RECORD_LIMIT),
       db
         .select({
-          id: odometerReadings.id,
-          readOn: odometerReadings.readOn,
-          odometerMi: odometerReadings.odometerMi,
-          source: odometerReadings.source,
+          id: visibleOdometerReadings.id,
+          readOn: visibleOdometerReadings.readOn,
+          odometerMi: visibleOdometerReadings.odometerMi,
+          source: visibleOdometerReadings.source,
         })
-        .from(odometerReadings)
-        .where(orgWhere(odometerReadings, scope, ofVehicle(odometerReadings.vehicleId)))
-        .orderBy(desc(odometerReadings.readOn), desc(odometerReadings.id))
+        .from(visibleOdometerReadings)
+        .where(
+          orgWhere(visibleOdometerReadings, scope, ofVehicle(visibleOdometerReadings.vehicleId)),
+        )
+        .orderBy(desc(visibleOdometerReadings.readOn), desc(visibleOdometerReadings.id))
         .limit(TIMELINE_RECORD_LIMIT),
       db
-        .select({ dtc: faultEvents.dtc, n: sql<number>`count(*)` })
-        .from(faultEvents)
-        .where(orgWhere(faultEvents, scope, ofVehicle(faultEvents.vehicleId)))
-        .groupBy(faultEvents.dtc),
+        .select({ dtc: visibleFaultEvents.dtc, n: sql<number>`count(*)` })
+        .from(visibleFaultEvents)
+        .where(orgWhere(visibleFaultEvents, scope, ofVehicle(visibleFaultEvents.vehicleId)))
+        .groupBy(visibleFaultEvents.dtc),
       db
         .select({
           n: sql<number>`count(*)`,
-          parts: sql<number>`coalesce(sum(${repairLines.partsCostCents}), 0)`,
-          labour: sql<number>`coalesce(sum(${repairLines.laborCostCents}), 0)`,
+          parts: sql<number>`coalesce(sum(${visibleRepairLines.partsCostCents}), 0)`,
+          labour: sql<number>`coalesce(sum(${visibleRepairLines.laborCostCents}), 0)`,
         })
-        .from(repairLines)
-        .where(orgWhere(repairLines, scope, ofVehicle(repairLines.vehicleId))),
+        .from(visibleRepairLines)
+        .where(orgWhere(visibleRepairLines, scope, ofVehicle(visibleRepairLines.vehicleId))),
       db
         .select({
           n: sql<number>`count(*)`,
-          price: sql<number>`coalesce(sum(${fuelTransactions.priceTotalCents}), 0)`,
+          price: sql<number>`coalesce(sum(${visibleFuelTransactions.priceTotalCents}), 0)`,
         })
-        .from(fuelTransactions)
-        .where(orgWhere(fuelTransactions, scope, ofVehicle(fuelTransactions.vehicleId))),
+        .from(visibleFuelTransactions)
+        .where(
+          orgWhere(visibleFuelTransactions, scope, ofVehicle(visibleFuelTransactions.vehicleId)),
+        ),
       db
         .select({
           id: analysisRuns.id,
@@ -349,12 +357,20 @@ export async function getVehicleTimeline(
         .limit(1),
     ]);
   const [repairOrderCount, faultEventCount, readingCount] = await Promise.all([
-    countRows(db, repairOrders, orgWhere(repairOrders, scope, ofVehicle(repairOrders.vehicleId))),
-    countRows(db, faultEvents, orgWhere(faultEvents, scope, ofVehicle(faultEvents.vehicleId))),
     countRows(
       db,
-      odometerReadings,
-      orgWhere(odometerReadings, scope, ofVehicle(odometerReadings.vehicleId)),
+      visibleRepairOrders,
+      orgWhere(visibleRepairOrders, scope, ofVehicle(visibleRepairOrders.vehicleId)),
+    ),
+    countRows(
+      db,
+      visibleFaultEvents,
+      orgWhere(visibleFaultEvents, scope, ofVehicle(visibleFaultEvents.vehicleId)),
+    ),
+    countRows(
+      db,
+      visibleOdometerReadings,
+      orgWhere(visibleOdometerReadings, scope, ofVehicle(visibleOdometerReadings.vehicleId)),
     ),
   ]);
 

@@ -2,12 +2,12 @@ import "server-only";
 import { asc, desc, eq, or, sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import {
-  faultEvents,
-  fuelTransactions,
   generations,
-  repairLines,
-  repairOrders,
   vehicles,
+  visibleFaultEvents,
+  visibleFuelTransactions,
+  visibleRepairLines,
+  visibleRepairOrders,
 } from "@/db/schema";
 import { recordAudit } from "./audit";
 import {
@@ -81,30 +81,34 @@ export async function getVehicle(db: Db, scope: OrgScope, vehicleId: number) {
   const [repairOrderCount, faultEventCount, fillUpCount] = await Promise.all([
     countRows(
       db,
-      repairOrders,
-      orgWhere(repairOrders, scope, eq(repairOrders.vehicleId, vehicleId)),
+      visibleRepairOrders,
+      orgWhere(visibleRepairOrders, scope, eq(visibleRepairOrders.vehicleId, vehicleId)),
     ),
-    countRows(db, faultEvents, orgWhere(faultEvents, scope, eq(faultEvents.vehicleId, vehicleId))),
     countRows(
       db,
-      fuelTransactions,
-      orgWhere(fuelTransactions, scope, eq(fuelTransactions.vehicleId, vehicleId)),
+      visibleFaultEvents,
+      orgWhere(visibleFaultEvents, scope, eq(visibleFaultEvents.vehicleId, vehicleId)),
+    ),
+    countRows(
+      db,
+      visibleFuelTransactions,
+      orgWhere(visibleFuelTransactions, scope, eq(visibleFuelTransactions.vehicleId, vehicleId)),
     ),
   ]);
   const recentRepairs = await db
     .select({
-      id: repairLines.id,
-      roNumber: repairOrders.roNumber,
-      openedOn: repairLines.openedOn,
-      odometerMi: repairLines.odometerMi,
-      complaint: repairLines.complaint,
-      correction: repairLines.correction,
-      dtcCodes: repairLines.dtcCodes,
+      id: visibleRepairLines.id,
+      roNumber: visibleRepairOrders.roNumber,
+      openedOn: visibleRepairLines.openedOn,
+      odometerMi: visibleRepairLines.odometerMi,
+      complaint: visibleRepairLines.complaint,
+      correction: visibleRepairLines.correction,
+      dtcCodes: visibleRepairLines.dtcCodes,
     })
-    .from(repairLines)
-    .innerJoin(repairOrders, eq(repairOrders.id, repairLines.repairOrderId))
-    .where(orgWhere(repairLines, scope, eq(repairLines.vehicleId, vehicleId)))
-    .orderBy(desc(repairLines.openedOn), desc(repairLines.id))
+    .from(visibleRepairLines)
+    .innerJoin(visibleRepairOrders, eq(visibleRepairOrders.id, visibleRepairLines.repairOrderId))
+    .where(orgWhere(visibleRepairLines, scope, eq(visibleRepairLines.vehicleId, vehicleId)))
+    .orderBy(desc(visibleRepairLines.openedOn), desc(visibleRepairLines.id))
     .limit(10);
   return {
     ...vehicle,

@@ -8,3 +8,4 @@ export * from "./analysis";
 export * from "./operations";
 export * from "./staging";
 export * from "./campaigns";
+export * from "./visible";

@@ -109,6 +109,8 @@ export const repairLineCodes = sqliteTable(
     /** Copied from the line for grouping; the line's own foreign key guards integrity. */
     vehicleId: integer("vehicle_id").notNull(),
     dtc: text("dtc").notNull(),
+    /** The line's import, so that the visible_ views hide codes of an import still applying. */
+    importId: integer("import_id"),
   },
   (t) => [
     index("repair_line_codes_org_dtc").on(t.organisationId, t.dtc),

@@ -6,11 +6,13 @@ import { imports } from "./operations";
 /**
  * Staging tables of the import pipeline. Reading a file checks every row and writes the good
  * ones here in small committed chunks (so progress is visible and other writers are not
- * blocked); applying moves them into the data in one atomic batch of INSERT … SELECT
- * statements, then the staged rows are removed. A crash while reading leaves only staged rows,
- * which the retry deletes first. Parts rows stay after applying: they hold the previous stock
- * values that an undo restores. Only parts are indexed by import: the other staging tables
- * hold nothing but the rows of imports in flight, and every index slows the staging writes.
+ * blocked); applying moves them into the data with INSERT … SELECT statements (in chunks for
+ * the large kinds, hidden from readers until the import is done: see jobs/import/apply.ts),
+ * then the staged rows are removed. A crash while reading leaves only staged rows, which the
+ * retry deletes first. Parts rows stay after applying: they hold the previous stock values
+ * that an undo restores. Few staging tables are indexed: they hold nothing but the rows of
+ * imports in flight, and every index slows the staging writes. Parts are looked up by import;
+ * repairs are applied in RO-number ranges.
  */
 
 const common = () => ({
@@ -45,27 +47,32 @@ export const stagedVehicles = sqliteTable("staged_vehicles", {
   odometerUnit: text("odometer_unit"),
 });
 
-export const stagedRepairs = sqliteTable("staged_repairs", {
-  ...common(),
-  ...vehicleColumns(),
-  roNumber: text("ro_number").notNull(),
-  openedOn: text("opened_on").notNull(),
-  closedOn: text("closed_on"),
-  odometerMi: real("odometer_mi"),
-  complaint: text("complaint"),
-  cause: text("cause"),
-  correction: text("correction"),
-  dtcCodes: text("dtc_codes"),
-  componentId: integer("component_id"),
-  symptom: text("symptom"),
-  laborHours: real("labor_hours"),
-  partsCostCents: cents("parts_cost_cents"),
-  laborCostCents: cents("labor_cost_cents"),
-  partNumbers: text("part_numbers"),
-  technician: text("technician"),
-  vendor: text("vendor"),
-  isWarranty: integer("is_warranty", { mode: "boolean" }).notNull().default(false),
-});
+export const stagedRepairs = sqliteTable(
+  "staged_repairs",
+  {
+    ...common(),
+    ...vehicleColumns(),
+    roNumber: text("ro_number").notNull(),
+    openedOn: text("opened_on").notNull(),
+    closedOn: text("closed_on"),
+    odometerMi: real("odometer_mi"),
+    complaint: text("complaint"),
+    cause: text("cause"),
+    correction: text("correction"),
+    dtcCodes: text("dtc_codes"),
+    componentId: integer("component_id"),
+    symptom: text("symptom"),
+    laborHours: real("labor_hours"),
+    partsCostCents: cents("parts_cost_cents"),
+    laborCostCents: cents("labor_cost_cents"),
+    partNumbers: text("part_numbers"),
+    technician: text("technician"),
+    vendor: text("vendor"),
+    isWarranty: integer("is_warranty", { mode: "boolean" }).notNull().default(false),
+  },
+  // The apply step walks an import's repair orders in RO-number ranges, a chunk at a time.
+  (t) => [index("staged_repairs_import_ro").on(t.importId, t.roNumber)],
+);
 
 export const stagedFaults = sqliteTable("staged_faults", {
   ...common(),

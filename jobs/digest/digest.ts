@@ -84,8 +84,8 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
     fault: string | null;
   }>(sql`
     select l.id, l.vehicle_id, l.opened_on, l.odometer_mi,
-           coalesce(k.system || ' → ' || k.name, (select min(dtc) from repair_line_codes c where c.repair_line_id = l.id)) as fault
-      from repair_lines l left join components k on k.id = l.component_id
+           coalesce(k.system || ' → ' || k.name, (select min(dtc) from visible_repair_line_codes c where c.repair_line_id = l.id)) as fault
+      from visible_repair_lines l left join components k on k.id = l.component_id
      where l.organisation_id = ${organisationId}
        and l.opened_on >= date(${sinceIso}, ${`-${org.comeback_days + 1} days`})`);
   const byFault = new Map<string, typeof lines>();

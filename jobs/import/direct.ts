@@ -282,8 +282,8 @@ function directSink(
         // DTCs are checked against SAE J2012 while reading ([0-9A-Z] only), so the
         // space-separated list becomes a JSON array by plain replacement.
         writer.run(
-          `insert into repair_line_codes (organisation_id, repair_line_id, vehicle_id, dtc)
-             select ${org}, l.id, l.vehicle_id, j.value
+          `insert into repair_line_codes (organisation_id, repair_line_id, vehicle_id, dtc, import_id)
+             select ${org}, l.id, l.vehicle_id, j.value, l.import_id
                from repair_lines l
                join json_each('["' || replace(l.dtc_codes, ' ', '","') || '"]') j
               where l.id between ${int(firstLineOfChunk)} and ${int(nextLine)}

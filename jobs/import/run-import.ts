@@ -4,7 +4,13 @@ import { auditLog, imports } from "@/db/schema";
 import type { ImportOptions } from "@/db/queries/imports";
 import { autoMapHeaders, type ColumnMapping } from "@/lib/import";
 import { PermanentJobError } from "../errors";
-import { applyStagedImport, clearStagedRows } from "./apply";
+import {
+  applyStagedImport,
+  clearStagedRows,
+  isChunked,
+  removePartialApply,
+  type ApplyOptions,
+} from "./apply";
 import { isDirectKind, readAndWrite } from "./direct";
 import { readAndStage, type ReadInput } from "./read";
 import { hasRunCancel, readRunCancel, removeRunFiles, writeRunProgress } from "./run-files";
@@ -16,6 +22,10 @@ export type RunImportHooks = {
   /** Pauses the job's lease heartbeat while the import holds the write lock (see direct.ts). */
   holdHeartbeat?: (isHeld: boolean) => void;
   log?: (msg: string) => void;
+  /** Chunk size and a per-chunk check for the apply step (tests ask for small chunks). */
+  apply?: ApplyOptions;
+  /** Tests: take the staged path on a local database file too, as on a libSQL server. */
+  isStagedOnFile?: boolean;
 };
 
 /** Header names in the stored mapping → column positions in this file. */
@@ -56,8 +66,10 @@ export async function runImport(
   if (!options) throw new PermanentJobError("The import has no column mapping.");
 
   if (imp.status === "applying") {
-    // The apply batch is atomic: if the import is still "applying", it did not commit. Start over.
+    // An earlier attempt stopped while applying. Its rows are hidden from readers while the
+    // import is "applying"; remove them before the status changes, then start over.
     hooks.log?.(`import ${importId}: an earlier attempt stopped while applying; reading again`);
+    await removePartialApply(db, imp.kind, importId);
   }
   await clearStagedRows(db, imp.kind, importId);
   await db.$client.execute({
@@ -104,7 +116,7 @@ export async function runImport(
     },
   };
   const file = localDatabasePath(db);
-  if (file && isDirectKind(imp.kind)) {
+  if (file && isDirectKind(imp.kind) && !hooks.isStagedOnFile) {
     await runInOneTransaction(db, file, { ...input, kind: imp.kind }, imp.storedPath, hooks);
     return;
   }
@@ -123,19 +135,32 @@ export async function runImport(
   }
   await db.update(imports).set({ status: "applying" }).where(eq(imports.id, importId));
   const applyStarted = performance.now();
-  // The apply is one atomic batch that holds the write lock: the lease heartbeat would only
-  // wait for it (and a libSQL server rolls back a long write transaction that another client
-  // waits behind), so it pauses until the batch is done.
-  hooks.holdHeartbeat?.(true);
+  // A small kind is applied in one batch that holds the write lock: the lease heartbeat would
+  // only wait for it (and a libSQL server rolls back a write that another client waits
+  // behind), so it pauses until the batch is done. The large kinds go in short chunks: the
+  // heartbeat keeps the lease between them, and a lost lease stops the apply.
+  const isOneBatch = !isChunked(imp.kind);
+  if (isOneBatch) hooks.holdHeartbeat?.(true);
   try {
-    await applyStagedImport(db, {
-      kind: imp.kind,
-      organisationId: imp.organisationId,
-      importId,
-      stagedRows: result.staged,
-    });
+    await applyStagedImport(
+      db,
+      {
+        kind: imp.kind,
+        organisationId: imp.organisationId,
+        importId,
+        stagedRows: result.staged,
+      },
+      {
+        chunkRows: hooks.apply?.chunkRows,
+        beforeChunk: async (chunk) => {
+          if (hooks.hasLease && !hooks.hasLease())
+            throw new Error("Lost the job's lease to another worker.");
+          await hooks.apply?.beforeChunk?.(chunk);
+        },
+      },
+    );
   } finally {
-    hooks.holdHeartbeat?.(false);
+    if (isOneBatch) hooks.holdHeartbeat?.(false);
   }
   const secs = (a: number, b: number) => ((b - a) / 1000).toFixed(1);
   hooks.log?.(
@@ -220,9 +245,11 @@ export async function failImport(db: Db, importId: number, reason: string): Prom
     .from(imports)
     .where(eq(imports.id, importId));
   if (!imp || imp.status === "done" || imp.status === "undone") return;
-  await clearStagedRows(db, imp.kind, importId);
   await db
     .update(imports)
     .set({ status: "failed", error: reason.slice(0, 1000), finishedAt: now() })
     .where(eq(imports.id, importId));
+  // Rows of a partial apply stay hidden once the import is "failed"; then they are removed.
+  await removePartialApply(db, imp.kind, importId);
+  await clearStagedRows(db, imp.kind, importId);
 }

@@ -30,7 +30,7 @@ function filterSql(filter: EventFilter): { sql: string; args: (string | null)[] 
 
 type Row = Record<string, unknown>;
 
-const MISSING_SQL = `select count(*) as n from repair_lines where organisation_id = ?1 and odometer_mi is null`;
+const MISSING_SQL = `select count(*) as n from visible_repair_lines where organisation_id = ?1 and odometer_mi is null`;
 
 /**
  * Repairs per cohort × mileage band × fault. An event is a repair line: for a DTC, a line that
@@ -73,8 +73,8 @@ export async function countEventsByCohort(
       {
         sql: `select ${cohort}, 'dtc:' || c.dtc as fault_key, c.dtc, null as component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
-                from repair_line_codes c
-                join repair_lines l on l.id = c.repair_line_id
+                from visible_repair_line_codes c
+                join visible_repair_lines l on l.id = c.repair_line_id
                 ${vehicle}
                where c.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                group by 1, 2, 3, 4, c.dtc`,
@@ -83,7 +83,7 @@ export async function countEventsByCohort(
       {
         sql: `select ${cohort}, 'component:' || k.slug as fault_key, null as dtc, l.component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
-                from repair_lines l
+                from visible_repair_lines l
                 join components k on k.id = l.component_id
                 ${vehicle}
                where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
@@ -93,7 +93,7 @@ export async function countEventsByCohort(
       {
         sql: `select ${cohort}, 'all' as fault_key, null as dtc, null as component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
-                from repair_lines l
+                from visible_repair_lines l
                 ${vehicle}
                where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                  and (l.component_id is not null or l.dtc_codes is not null)
@@ -142,8 +142,8 @@ export async function countEventsPerVehicle(
   const inThread = readInThread(file, [
     {
       sql: `select c.vehicle_id, ${band} as band, c.dtc, count(*) as n
-              from repair_line_codes c
-              join repair_lines l on l.id = c.repair_line_id
+              from visible_repair_line_codes c
+              join visible_repair_lines l on l.id = c.repair_line_id
              where c.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
              group by c.vehicle_id, band, c.dtc`,
       args,
@@ -151,7 +151,7 @@ export async function countEventsPerVehicle(
     {
       sql: `select l.vehicle_id, ${band} as band, l.component_id, l.dtc_codes is not null as has_dtc,
                    count(*) as n
-              from repair_lines l
+              from visible_repair_lines l
              where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                and (l.component_id is not null or l.dtc_codes is not null)
              group by l.vehicle_id, band, l.component_id, has_dtc`,

@@ -71,16 +71,16 @@ export async function computeExposure(
       sql: `select vehicle_id,
                    group_concat(cast(julianday(day) - 2440587.5 as integer) || ',' || odometer_mi, ';') as readings
               from (select vehicle_id, day, max(odometer_mi) as odometer_mi from (
-                select vehicle_id, opened_on as day, odometer_mi from repair_orders
+                select vehicle_id, opened_on as day, odometer_mi from visible_repair_orders
                  where organisation_id = ?1 and vehicle_id between ?2 and ?3 and odometer_mi is not null
                 union all
-                select vehicle_id, substr(occurred_at, 1, 10), odometer_mi from fault_events
+                select vehicle_id, substr(occurred_at, 1, 10), odometer_mi from visible_fault_events
                  where organisation_id = ?1 and vehicle_id between ?2 and ?3 and odometer_mi is not null
                 union all
-                select vehicle_id, substr(filled_at, 1, 10), odometer_mi from fuel_transactions
+                select vehicle_id, substr(filled_at, 1, 10), odometer_mi from visible_fuel_transactions
                  where organisation_id = ?1 and vehicle_id between ?2 and ?3 and odometer_mi is not null
                 union all
-                select vehicle_id, read_on, odometer_mi from odometer_readings
+                select vehicle_id, read_on, odometer_mi from visible_odometer_readings
                  where organisation_id = ?1 and vehicle_id between ?2 and ?3
               ) group by vehicle_id, day) group by vehicle_id`,
       args: [organisationId, from, to],
