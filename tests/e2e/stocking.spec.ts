@@ -36,6 +36,13 @@ test("the shop owner plans stock and exports the purchase list", async ({ page }
   const bad = await page.request.get("/api/stocking?serviceLevel=0.5");
   expect(bad.status()).toBe(400);
   expect((await bad.json()).error).toMatch(/Choose 80%/);
+  // The page itself shows the reason and plans with the defaults (95%).
+  await page.goto("/stocking?serviceLevel=0.5&serviceLevel=0.99");
+  await expect(page.getByRole("alert").filter({ hasText: "showing the defaults" })).toHaveText(
+    /Choose 80%.*showing the defaults/,
+  );
+  await expect(form.getByLabel("Service level")).toHaveValue("0.95");
+  expect(Number(await page.getByTestId("stock-parts-to-reorder").textContent())).toBe(reorderAt95);
 });
 
 test("a technician cannot open the stocking plan", async ({ page }) => {

@@ -11,6 +11,7 @@ import { listCampaigns } from "@/db/queries/campaigns";
 import { requirePage } from "@/lib/auth/guard";
 import { formatMoney, formatSig } from "@/lib/format";
 import { formatDistance, unitToMiles } from "@/lib/units";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "At risk" };
 
@@ -18,14 +19,10 @@ const Query = z.object({
   next: z.coerce.number().int().min(100).max(200_000).catch(10_000).default(10_000),
 });
 
-export default async function AtRiskPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function AtRiskPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("campaigns:manage");
   const unit = auth.organisation.distanceUnit;
-  const { next } = Query.parse(await searchParams);
+  const { next } = Query.parse(await queryValues(searchParams));
   const db = await getDb();
   const { rows, labourPerHourCents } = await getAtRiskVehicles(db, auth, {
     nextMiles: unitToMiles(next, unit),

@@ -10,6 +10,7 @@ import { requirePage } from "@/lib/auth/guard";
 import type { ComebackLine, ComebackRate } from "@/lib/comeback-rates";
 import { formatSig, numberFormat } from "@/lib/format";
 import { milesToUnit } from "@/lib/units";
+import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Comebacks" };
 
@@ -135,17 +136,9 @@ function RepairCell({ line, unit }: { line: ComebackLine; unit: "mi" | "km" }) {
   );
 }
 
-export default async function ComebacksPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function ComebacksPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("comebacks:read");
-  const raw = Object.fromEntries(
-    Object.entries(await searchParams).filter(([, v]) => typeof v === "string"),
-  ) as Record<string, string>;
-  const parsed = ComebackPageQuery.safeParse(raw);
-  const q = parsed.success ? parsed.data : ComebackPageQuery.parse({});
+  const { query: q, problem } = parseOrDefaults(ComebackPageQuery, await queryValues(searchParams));
   const r = await getComebackReport(await getDb(), auth);
   const unit = r.settings.unit;
   const enough = (x: ComebackRate) => x.repairs >= q.min;
@@ -176,9 +169,9 @@ export default async function ComebacksPage({
           </a>
         }
       />
-      {!parsed.success ? (
+      {problem ? (
         <p role="alert" className="mb-4 text-alarm-700">
-          {parsed.error.issues[0]?.message ?? "Invalid settings"}: showing the defaults.
+          {problem}: showing the defaults.
         </p>
       ) : null}
 

@@ -16,6 +16,7 @@ import { SYMPTOM_LABELS, STATE_LABELS } from "@/lib/known-issues";
 import { LookupQuery, RANKING_RULE, readCodes, readSymptom } from "@/lib/lookup";
 import { formatDistance } from "@/lib/units";
 import { checkVin, type VinCheck } from "@/lib/vin";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Lookup" };
 
@@ -30,17 +31,9 @@ const PRINT_CSS = `@media print {
 
 const pct = (x: number | null) => (x === null ? "—" : `${Math.round(x * 100)}%`);
 
-export default async function LookupPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function LookupPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("lookup:use");
-  const raw = Object.fromEntries(
-    Object.entries(await searchParams).flatMap(([k, v]) =>
-      typeof v === "string" ? [[k, v]] : Array.isArray(v) && v[0] ? [[k, v[0]]] : [],
-    ),
-  ) as Record<string, string>;
+  const raw = await queryValues(searchParams);
   const parsed = LookupQuery.safeParse(raw);
   const errors: Record<string, string[]> = {};
   if (!parsed.success) {

@@ -12,6 +12,7 @@ import { can } from "@/lib/auth/roles";
 import { formatInterval, formatSig, numberFormat } from "@/lib/format";
 import { RefuelPageQuery } from "@/lib/refuel-request";
 import { milesToUnit, unitToMiles } from "@/lib/units";
+import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Refuel analysis" };
 
@@ -23,17 +24,9 @@ const SYMPTOM_CHOICES = [
 
 const cohortLabel = (key: string) => key.split("|").join(" ");
 
-export default async function RefuelPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function RefuelPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("refuel:read");
-  const raw = Object.fromEntries(
-    Object.entries(await searchParams).filter(([, v]) => typeof v === "string"),
-  ) as Record<string, string>;
-  const parsed = RefuelPageQuery.safeParse(raw);
-  const q = parsed.success ? parsed.data : RefuelPageQuery.parse({});
+  const { query: q, problem } = parseOrDefaults(RefuelPageQuery, await queryValues(searchParams));
   const db = await getDb();
   const org = await getOrganisation(db, auth);
   const unit = org.distanceUnit;
@@ -85,9 +78,9 @@ export default async function RefuelPage({
         title="Refuel analysis"
         description={`Do ${what} come sooner after a fill-up than chance predicts? Per cohort and per vehicle, against each vehicle's own refuelling interval.`}
       />
-      {!parsed.success ? (
+      {problem ? (
         <p role="alert" className="mb-4 text-alarm-700">
-          {parsed.error.issues[0]?.message ?? "Invalid settings"}: showing the defaults.
+          {problem}: showing the defaults.
         </p>
       ) : null}
       <Panel>

@@ -8,20 +8,13 @@ import { getStockingPlan } from "@/db/queries/stocking";
 import { requirePage } from "@/lib/auth/guard";
 import { formatMoney, formatSig } from "@/lib/format";
 import { SERVICE_LEVELS, StockingQuery } from "@/lib/stocking-request";
+import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Stocking" };
 
-export default async function StockingPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function StockingPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("stocking:read");
-  const raw = Object.fromEntries(
-    Object.entries(await searchParams).filter(([, v]) => typeof v === "string"),
-  ) as Record<string, string>;
-  const parsed = StockingQuery.safeParse(raw);
-  const q = parsed.success ? parsed.data : StockingQuery.parse({});
+  const { query: q, problem } = parseOrDefaults(StockingQuery, await queryValues(searchParams));
   const plan = await getStockingPlan(await getDb(), auth, q);
   const rows = q.only === "all" ? plan.parts : plan.parts.filter((p) => p.reorder > 0);
   const reorderValue = plan.parts.reduce((s, p) => s + (p.unitCostCents ?? 0) * p.reorder, 0);
@@ -38,9 +31,9 @@ export default async function StockingPage({
         title="Stocking"
         description="Which parts to keep on the shelf for the vehicles this shop sees, from their measured failure rates and how far they drive."
       />
-      {!parsed.success ? (
+      {problem ? (
         <p role="alert" className="mb-4 text-alarm-700">
-          {parsed.error.issues[0]?.message ?? "Invalid settings"}: showing the defaults.
+          {problem}: showing the defaults.
         </p>
       ) : null}
       <Panel>

@@ -7,6 +7,7 @@ import { getAuthState } from "@/lib/auth/guard";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { getEnv } from "@/lib/env";
 import { SignInForm } from "./sign-in-form";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Sign in" };
 
@@ -27,12 +28,8 @@ const NOTICES: Record<NonNullable<z.infer<typeof Reason>>, string> = {
     "Your account is not a member of any organisation. Ask an admin to invite you.",
 };
 
-export default async function SignInPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
-  const query = await searchParams;
+export default async function SignInPage({ searchParams }: { searchParams: PageSearchParams }) {
+  const query = await queryValues(searchParams);
   const reason = Reason.parse(query.reason);
   const next = Next.parse(query.next);
   const state = await getAuthState();

@@ -12,6 +12,7 @@ import { requirePage } from "@/lib/auth/guard";
 import { can } from "@/lib/auth/roles";
 import { STATE_LABELS } from "@/lib/known-issues";
 import { formatDistance } from "@/lib/units";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Known issues" };
 
@@ -20,10 +21,10 @@ const Query = z.object({ state: z.enum(KNOWN_ISSUE_STATES).optional().catch(unde
 export default async function KnownIssuesPage({
   searchParams,
 }: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
+  searchParams: PageSearchParams;
 }) {
   const auth = await requirePage("known-issues:read");
-  const { state } = Query.parse(await searchParams);
+  const { state } = Query.parse(await queryValues(searchParams));
   const issues = await listKnownIssues(await getDb(), auth, { state });
   const unit = auth.organisation.distanceUnit;
   const range = (from: number | null, to: number | null) =>

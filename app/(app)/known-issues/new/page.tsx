@@ -9,21 +9,20 @@ import { CellKeyQuery } from "@/lib/cell-request";
 import { createKnownIssueAction } from "../actions";
 import { RefuelPageQuery } from "@/lib/refuel-request";
 import { EMPTY_VALUES, formChoices, valuesFromCell, valuesFromRefuel } from "../form-values";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "New known issue" };
 
 export default async function NewKnownIssuePage({
   searchParams,
 }: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
+  searchParams: PageSearchParams;
 }) {
   const auth = await requirePage("known-issues:manage");
   const db = await getDb();
   const unit = auth.organisation.distanceUnit;
   const { choices, generations } = await formChoices(db, auth, unit);
-  const raw = Object.fromEntries(
-    Object.entries(await searchParams).filter(([, v]) => typeof v === "string"),
-  );
+  const raw = await queryValues(searchParams);
   const fromCell = CellKeyQuery.safeParse(raw);
   const fromRefuel = RefuelPageQuery.safeParse(raw);
   const prefilled =

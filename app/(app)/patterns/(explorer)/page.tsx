@@ -15,20 +15,13 @@ import { getHeatmap, getPatternOptions } from "@/db/queries/patterns";
 import { requirePage } from "@/lib/auth/guard";
 import { CellQuery, HeatmapQuery } from "@/lib/cell-request";
 import { formatBand } from "@/lib/format";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Patterns" };
 
-export default async function PatternsPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function PatternsPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("patterns:read");
-  const raw = Object.fromEntries(
-    Object.entries(await searchParams).flatMap(([k, v]) =>
-      typeof v === "string" && v !== "" ? [[k, v]] : [],
-    ),
-  ) as Record<string, string>;
+  const raw = await queryValues(searchParams, { dropEmpty: true });
   const params = explorerParams(raw);
   const db = await getDb();
   const unit = auth.organisation.distanceUnit;

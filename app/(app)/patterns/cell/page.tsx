@@ -18,6 +18,7 @@ import {
 import { can } from "@/lib/auth/roles";
 import { milesToUnit } from "@/lib/units";
 import { loadCell } from "./load-cell";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Pattern detail" };
 
@@ -34,15 +35,8 @@ function viewWords(key: { from?: string; to?: string; vendor?: string }): string
   return [period, key.vendor ? `by ${key.vendor}` : ""].filter(Boolean).join(" ");
 }
 
-export default async function CellPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
-  const raw = await searchParams;
-  const query = new URLSearchParams(
-    Object.entries(raw).flatMap(([k, v]) => (typeof v === "string" ? [[k, v]] : [])),
-  ).toString();
+export default async function CellPage({ searchParams }: { searchParams: PageSearchParams }) {
+  const query = new URLSearchParams(await queryValues(searchParams)).toString();
   const { auth, key, detail } = await loadCell(query);
   if (!key || !detail) notFound();
   const unit = auth.organisation.distanceUnit;

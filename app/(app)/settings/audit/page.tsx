@@ -6,19 +6,16 @@ import { Pagination } from "@/components/ui/pagination";
 import { getDb } from "@/db";
 import { listAuditLog } from "@/db/queries/audit";
 import { requirePage } from "@/lib/auth/guard";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Audit log" };
 
 const Query = z.object({ page: z.coerce.number().int().min(1).catch(1).default(1) });
 const PAGE_SIZE = 50;
 
-export default async function AuditPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function AuditPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("audit:read");
-  const { page } = Query.parse(await searchParams);
+  const { page } = Query.parse(await queryValues(searchParams));
   const { rows, total } = await listAuditLog(await getDb(), auth, { page, pageSize: PAGE_SIZE });
   return (
     <>

@@ -8,6 +8,7 @@ import { getDb } from "@/db";
 import { listCapturedMail } from "@/db/queries/captured-mail";
 import { requirePage } from "@/lib/auth/guard";
 import { getMailMode } from "@/lib/env";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Captured mail" };
 
@@ -26,12 +27,12 @@ function sandboxedDocument(html: string): string {
 export default async function CapturedMailPage({
   searchParams,
 }: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
+  searchParams: PageSearchParams;
 }) {
   const auth = await requirePage("settings:manage");
   // Only where mail goes to the local capture (demo mode, development) is there anything here.
   if (getMailMode().kind !== "capture") notFound();
-  const { page } = Query.parse(await searchParams);
+  const { page } = Query.parse(await queryValues(searchParams));
   const { rows, total } = await listCapturedMail(await getDb(), auth, {
     page,
     pageSize: PAGE_SIZE,

@@ -10,6 +10,7 @@ import { listVehicles } from "@/db/queries/vehicles";
 import { requirePage } from "@/lib/auth/guard";
 import { can } from "@/lib/auth/roles";
 import { formatDistance } from "@/lib/units";
+import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Vehicles" };
 
@@ -20,13 +21,9 @@ const Query = z.object({
 
 const PAGE_SIZE = 50;
 
-export default async function VehiclesPage({
-  searchParams,
-}: {
-  searchParams: Promise<Record<string, string | string[] | undefined>>;
-}) {
+export default async function VehiclesPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("vehicles:read");
-  const { q, page } = Query.parse(await searchParams);
+  const { q, page } = Query.parse(await queryValues(searchParams));
   const { rows, total } = await listVehicles(await getDb(), auth, { q, page, pageSize: PAGE_SIZE });
   const unit = auth.organisation.distanceUnit;
   return (
