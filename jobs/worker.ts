@@ -5,6 +5,10 @@ import { claimJob, completeJob, extendLease, failJob, reapAbandonedJobs, type Jo
 import { PermanentJobError } from "./errors";
 import { HANDLERS, type JobContext } from "./handlers";
 
+/** What the user is told when a job gives up on an error that was not written for them. */
+export const UNEXPECTED_FAILURE =
+  "It stopped on an unexpected error on its last try (the details are in the worker's log). Try again; if it fails again, tell your administrator.";
+
 export type WorkerOptions = {
   db: Db;
   workerId?: string;
@@ -87,7 +91,15 @@ export async function runJob(
       },
     );
     log(`job ${job.id} (${job.kind}) failed${isFinal ? " for good" : ", will retry"}: ${message}`);
-    if (isFinal) await handler.onGiveUp?.(job, message, ctx);
+    // A permanent error's message is written for the user (a bad file, a bad mapping); any
+    // other error's (the database's, the system's) stays in the log and the job's last_error.
+    if (isFinal) {
+      await handler.onGiveUp?.(
+        job,
+        e instanceof PermanentJobError ? message : UNEXPECTED_FAILURE,
+        ctx,
+      );
+    }
   }
 }
 

@@ -1,9 +1,14 @@
 "use client";
 
+import { useState } from "react";
 import { updateSettingsAction } from "@/app/(app)/settings/actions";
 import { buttonClass, inputClass } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { useFormAction } from "@/components/ui/use-form-action";
+import { convertDistanceSetting } from "@/lib/units";
+
+/** The settings given in the organisation's distance unit. */
+const DISTANCE_FIELDS = ["bandWidth", "comebackDistance", "refuelWindow", "minExposure"] as const;
 
 export type SettingsValues = {
   name: string;
@@ -25,7 +30,26 @@ export function SettingsForm({ values }: { values: SettingsValues }) {
     onSubmit,
     fieldErrors: errors,
   } = useFormAction(updateSettingsAction);
-  const unit = values.distanceUnit;
+  const [unit, setUnit] = useState(values.distanceUnit);
+  // A new unit converts the distances shown, so that the bands stay the same length unless
+  // they are changed on purpose (25,000 mi becomes 40,000 km, not 25,000 km).
+  const onUnitChange = (next: "mi" | "km") => {
+    for (const name of DISTANCE_FIELDS) {
+      const input = formRef.current?.elements.namedItem(name);
+      if (!(input instanceof HTMLInputElement)) continue;
+      const value = Number(input.value.replaceAll(",", "").trim());
+      if (input.value.trim() === "" || !Number.isFinite(value)) continue;
+      // Back to the saved unit with the figure untouched: the saved figure, exactly.
+      const saved = values[name];
+      const isUntouched = value === convertDistanceSetting(saved, values.distanceUnit, unit);
+      input.value = String(
+        next === values.distanceUnit && isUntouched
+          ? saved
+          : convertDistanceSetting(value, unit, next),
+      );
+    }
+    setUnit(next);
+  };
   return (
     <form ref={formRef} onSubmit={onSubmit} className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
       <Field
@@ -36,7 +60,12 @@ export function SettingsForm({ values }: { values: SettingsValues }) {
       />
       <label className="block text-sm">
         <span className="mb-1 block font-medium">Distances in</span>
-        <select name="distanceUnit" defaultValue={unit} className={inputClass}>
+        <select
+          name="distanceUnit"
+          value={unit}
+          onChange={(e) => onUnitChange(e.target.value === "km" ? "km" : "mi")}
+          className={inputClass}
+        >
           <option value="mi">miles</option>
           <option value="km">kilometres</option>
         </select>

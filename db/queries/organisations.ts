@@ -2,6 +2,7 @@ import "server-only";
 import { asc, eq, ne, sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import { memberships, organisations, users, type Role } from "@/db/schema";
+import { enqueueJob } from "@/jobs/queue";
 import { recordAudit } from "./audit";
 import { assertCan, ConflictError, NotFoundError, orgWhere, type OrgScope } from "./scope";
 
@@ -27,13 +28,22 @@ export type OrganisationSettings = {
   uploadLimitMb: number;
 };
 
+/** Settings the statistics are computed with: changing one queues a recompute. */
+const STATISTICS_SETTINGS = [
+  "distanceUnit",
+  "bandWidth",
+  "confidenceLevel",
+  "minExposure",
+] as const;
+
+/** Saves the settings; says whether the statistics are being recomputed for them. */
 export async function updateOrganisationSettings(
   db: Db,
   scope: OrgScope,
   settings: OrganisationSettings,
-): Promise<void> {
+): Promise<{ isRecomputing: boolean }> {
   assertCan(scope, "settings:manage");
-  await db.transaction(async (tx) => {
+  return db.transaction(async (tx) => {
     const [before] = await tx
       .select()
       .from(organisations)
@@ -49,6 +59,15 @@ export async function updateOrganisationSettings(
       entityId: scope.organisationId,
       detail: changed,
     });
+    const isRecomputing = STATISTICS_SETTINGS.some((k) => k in changed);
+    if (isRecomputing) {
+      await enqueueJob(tx, {
+        kind: "recompute",
+        organisationId: scope.organisationId,
+        payload: { organisationId: scope.organisationId },
+      });
+    }
+    return { isRecomputing };
   });
 }
 

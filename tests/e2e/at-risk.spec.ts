@@ -52,3 +52,47 @@ test("a technician cannot open the watch-list or the campaign lists", async ({ p
   expect((await page.goto("/at-risk"))?.status()).toBe(403);
   expect((await page.request.get("/api/at-risk")).status()).toBe(403);
 });
+
+test("home: a manager sees the vehicles most at risk; a technician the lookup; a viewer the known issues", async ({
+  browser,
+  baseURL,
+}) => {
+  const manager = await browser.newContext({ baseURL });
+  const page = await manager.newPage();
+  await signIn(page, "manager");
+  await page.goto("/");
+  const list = page.getByRole("list", { name: "Vehicles most at risk" });
+  await expect(list.getByRole("listitem").first()).toBeVisible();
+  const shown = await list.getByRole("listitem").count();
+  expect(shown).toBeGreaterThan(0);
+  expect(shown).toBeLessThanOrEqual(5);
+  // The same first vehicles as the watch-list's JSON, most expected failures first.
+  const api = (await (await page.request.get("/api/at-risk?limit=5")).json()) as {
+    rows: { vehicleId: number; expected: number }[];
+    total: number;
+  };
+  expect(api.rows.length).toBe(shown);
+  expect(api.total).toBeGreaterThanOrEqual(shown);
+  for (let i = 1; i < api.rows.length; i++) {
+    expect(api.rows[i - 1]!.expected).toBeGreaterThanOrEqual(api.rows[i]!.expected);
+  }
+  await expect(list.getByRole("link").first()).toHaveAttribute(
+    "href",
+    `/vehicles/${api.rows[0]!.vehicleId}`,
+  );
+  expect((await page.request.get("/api/at-risk?limit=0")).status()).toBe(400);
+  await manager.close();
+
+  for (const [role, link] of [
+    ["technician", "Look up a vehicle →"],
+    ["viewer", "Known issues →"],
+  ] as const) {
+    const context = await browser.newContext({ baseURL });
+    const other = await context.newPage();
+    await signIn(other, role);
+    await other.goto("/");
+    await expect(other.getByRole("link", { name: link })).toBeVisible();
+    await expect(other.getByRole("list", { name: "Vehicles most at risk" })).toHaveCount(0);
+    await context.close();
+  }
+});

@@ -137,3 +137,40 @@ test("a viewer reads known issues but cannot write to them", async ({ page }) =>
   );
   expect((await page.goto(`/known-issues/${other?.id}`))?.status()).toBe(404);
 });
+
+test("vehicle names link to their pages only for roles that may open them", async ({
+  browser,
+  baseURL,
+}) => {
+  // The first Tidewater known issue; its page lists the vehicles affected and at risk.
+  const [issue] = await queryDb<{ id: number }>(
+    `select k.id from known_issues k join organisations o on o.id = k.organisation_id
+      where o.slug = 'tidewater' order by k.id limit 1`,
+  );
+  const linkCounts: Record<string, number> = {};
+  for (const role of ["manager", "viewer"] as const) {
+    const context = await browser.newContext({ baseURL });
+    const page = await context.newPage();
+    await signIn(page, role);
+    await page.goto(`/known-issues/${issue?.id}`);
+    const affected = page.getByRole("heading", { name: /^Vehicles affected \(\d+\)$/ });
+    await expect(affected).toBeVisible();
+    linkCounts[role] = await page.locator('main a[href^="/vehicles/"]').count();
+    if (role === "viewer") {
+      // Every vehicle link is refused to a viewer: none is offered, the names are still shown.
+      const names = page.locator("main li span.rounded");
+      expect(await names.count()).toBeGreaterThan(0);
+      for (const href of await page
+        .locator("main a[href]")
+        .evaluateAll((as) => as.map((a) => a.getAttribute("href") ?? ""))) {
+        if (href.startsWith("/")) {
+          const res = await page.request.get(href);
+          expect(res.status(), href).toBeLessThan(400);
+        }
+      }
+    }
+    await context.close();
+  }
+  expect(linkCounts.manager).toBeGreaterThan(0);
+  expect(linkCounts.viewer).toBe(0);
+});

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { AtRiskPanel } from "@/components/home/at-risk-panel";
 import { OverviewFigures } from "@/components/home/overview-figures";
 import { PatternPanels } from "@/components/home/pattern-panels";
 import { getDb } from "@/db";
@@ -37,21 +38,33 @@ export default async function HomePage() {
           unit={org.distanceUnit}
           computedAt={run?.finishedAt ?? null}
         />
-        {can(auth.role, "lookup:use") ? (
+        {can(auth.role, "campaigns:manage") ? (
+          <AtRiskPanel unit={org.distanceUnit} />
+        ) : can(auth.role, "lookup:use") ? (
           <Panel title="At the bay">
             <p className="text-sm text-ink-soft">
-              Find a vehicle by VIN or unit number and see its timeline and the patterns it matches.
+              Before diagnosing: the common failures for a vehicle at its mileage, from its VIN or
+              unit number, odometer and codes.
             </p>
-            <Link href="/vehicles" className="mt-2 inline-block text-sm">
+            <Link href="/lookup" className="mt-2 inline-block text-sm">
+              Look up a vehicle →
+            </Link>{" "}
+            <Link href="/vehicles" className="mt-2 ml-3 inline-block text-sm">
               Vehicles →
             </Link>
           </Panel>
         ) : (
-          <Panel title="Vehicles at risk">
+          <Panel title="Known issues">
             <p className="text-sm text-ink-soft">
-              The watch-list of vehicles approaching a known issue&apos;s mileage comes with the
-              fleet workflows.
+              The failures confirmed as patterns here, with their evidence, the checks to make and
+              the parts.
             </p>
+            <Link href="/known-issues" className="mt-2 inline-block text-sm">
+              Known issues →
+            </Link>{" "}
+            <Link href="/refuel" className="mt-2 ml-3 inline-block text-sm">
+              Refuel analysis →
+            </Link>
           </Panel>
         )}
       </div>

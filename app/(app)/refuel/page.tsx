@@ -13,6 +13,7 @@ import { formatInterval, formatSig, numberFormat } from "@/lib/format";
 import { RefuelPageQuery } from "@/lib/refuel-request";
 import { milesToUnit, unitToMiles } from "@/lib/units";
 import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
+import { VehicleLink } from "@/components/vehicles/vehicle-link";
 
 export const metadata: Metadata = { title: "Refuel analysis" };
 
@@ -327,11 +328,9 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
                     <tr key={v.vehicleId} className="border-t border-line/60">
                       <td className="py-1 pr-3 tabular-nums text-ink-soft">{i + 1}</td>
                       <td className="py-1 pr-3 font-medium">
-                        {canSeeVehicles ? (
-                          <Link href={`/vehicles/${v.vehicleId}`}>{name}</Link>
-                        ) : (
-                          name
-                        )}
+                        <VehicleLink id={v.vehicleId} canOpen={canSeeVehicles}>
+                          {name}
+                        </VehicleLink>
                       </td>
                       <td className="py-1 pr-3">
                         {v.make} {v.model} {v.generation}
@@ -401,11 +400,9 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
                 return (
                   <tr key={v.vehicleId} className="border-t border-line/60">
                     <td className="py-1 pr-4">
-                      {canSeeVehicles ? (
-                        <Link href={`/vehicles/${v.vehicleId}`}>{name}</Link>
-                      ) : (
-                        name
-                      )}
+                      <VehicleLink id={v.vehicleId} canOpen={canSeeVehicles}>
+                        {name}
+                      </VehicleLink>
                     </td>
                     <td className="py-1 pr-4">{v.cohort}</td>
                     <td className="py-1 pr-4 text-right tabular-nums">{v.events}</td>

@@ -26,8 +26,13 @@ export async function updateSettingsAction(
   formData: FormData,
 ): Promise<ActionResult> {
   return runAction("settings:manage", Settings, formData, async (input, auth) => {
-    await updateOrganisationSettings(await getDb(), auth, input);
+    const { isRecomputing } = await updateOrganisationSettings(await getDb(), auth, input);
     revalidatePath("/", "layout");
-    return { ok: true, message: "Settings saved." };
+    return {
+      ok: true,
+      message: isRecomputing
+        ? "Settings saved. The statistics are being recomputed with them."
+        : "Settings saved.",
+    };
   });
 }

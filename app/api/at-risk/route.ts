@@ -10,9 +10,14 @@ export const dynamic = "force-dynamic";
 const Query = z.object({
   next: z.coerce.number().int().min(100).max(200_000).default(10_000),
   format: z.enum(["json", "csv"]).default("json"),
+  /** JSON only: the first rows (most expected failures first); `total` counts them all. */
+  limit: z.coerce.number().int().min(1).max(1000).optional(),
 });
 
-/** The at-risk watch-list (JSON), or as a spreadsheet-safe CSV. `next` is in the organisation's unit. */
+/**
+ * The at-risk watch-list (JSON: `{ rows, total }`), or as a spreadsheet-safe CSV. `next` is in
+ * the organisation's unit.
+ */
 export const GET = apiRoute("campaigns:manage", async (req, auth) => {
   const q = Query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
   if (!q.success) return jsonError(400, "Invalid query parameters.", q.error.issues);
@@ -20,7 +25,9 @@ export const GET = apiRoute("campaigns:manage", async (req, auth) => {
   const { rows } = await getAtRiskVehicles(await getDb(), auth, {
     nextMiles: unitToMiles(q.data.next, unit),
   });
-  if (q.data.format === "json") return Response.json({ rows });
+  if (q.data.format === "json") {
+    return Response.json({ rows: rows.slice(0, q.data.limit ?? rows.length), total: rows.length });
+  }
   const body = toCsv(
     [
       "unit_number",

@@ -123,9 +123,31 @@ describe("org scoping in the data layer", () => {
       audit.rows.every((r) => !JSON.stringify(r.detail ?? "").includes("1M8GDM9AXKP042788")),
     ).toBe(true);
     const org = await getOrganisation(db, a);
-    await updateOrganisationSettings(db, a, { ...org, comebackDays: 40 });
+    const recomputes = async (scope: OrgScope) =>
+      Number(
+        (
+          await db.$client.execute({
+            sql: "select count(*) as n from jobs where kind = 'recompute' and organisation_id = ?",
+            args: [scope.organisationId],
+          })
+        ).rows[0]?.n,
+      );
+    const before = await recomputes(a);
+    // The comeback window is not used by the statistics: nothing to recompute.
+    expect(await updateOrganisationSettings(db, a, { ...org, comebackDays: 40 })).toEqual({
+      isRecomputing: false,
+    });
     expect((await getOrganisation(db, a)).comebackDays).toBe(40);
     expect((await getOrganisation(db, b)).comebackDays).toBe(30);
+    expect(await recomputes(a)).toBe(before);
+    // The bands are: a new width (or unit, level, least exposure) queues a recompute, for A only.
+    const otherBefore = await recomputes(b);
+    const org2 = await getOrganisation(db, a);
+    expect(
+      await updateOrganisationSettings(db, a, { ...org2, bandWidth: org2.bandWidth + 5000 }),
+    ).toEqual({ isRecomputing: true });
+    expect(await recomputes(a)).toBe(before + 1);
+    expect(await recomputes(b)).toBe(otherBefore);
   });
 
   test("the last admin cannot be demoted", async () => {

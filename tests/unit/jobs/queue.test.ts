@@ -109,6 +109,47 @@ describe("job queue with leases", () => {
     expect(failed).toMatchObject({ status: "failed", last_error: "boom" });
   });
 
+  test("an import that gives up on a database error tells the user so, without the raw error", async () => {
+    const csv =
+      "ro_number,unit_number,make,model,model_year,opened_on,odometer,complaint\nRO-GU-1,GU-1,Ostra,Wren,2021,2025-01-05,41000,Stalls\n";
+    const { importId, inspection } = await upload(db, scope, "repairs", "give-up.csv", csv);
+    const { jobId } = await startImport(db, scope, importId, {
+      delimiter: inspection.delimiter,
+      headers: inspection.headers,
+      mapping: mappingByName(inspection.headers, inspection.mapping),
+      read: inspection.read,
+    });
+    await db.$client.execute({
+      sql: "update jobs set max_attempts = 1 where id = ?",
+      args: [jobId],
+    });
+    // Any write of a repair order fails, as a broken disk or a lost server would.
+    await db.$client.execute(
+      "create trigger give_up_test before insert on repair_orders begin select raise(abort, 'simulated storage failure XQ7'); end",
+    );
+    onTestFinished(async () => {
+      await db.$client.execute("drop trigger if exists give_up_test");
+    });
+    await startWorker({ db, jobId, isOneShot: true, log: () => {} });
+    const imp = await getImport(db, scope, importId);
+    expect(imp?.status).toBe("failed");
+    expect(imp?.error).toContain("unexpected error");
+    expect(imp?.error).not.toContain("XQ7");
+    const [job] = await rows<{ status: string; last_error: string }>(
+      db,
+      "select status, last_error from jobs where id = ?",
+      [jobId],
+    );
+    expect(job?.status).toBe("failed");
+    expect(job?.last_error).toContain("simulated storage failure XQ7");
+    const [orders] = await rows<{ n: number }>(
+      db,
+      "select count(*) as n from repair_orders where import_id = ?",
+      [importId],
+    );
+    expect(Number(orders?.n)).toBe(0);
+  });
+
   test("a job abandoned on its last attempt is reaped as failed", async () => {
     const id = await enqueueJob(db, { kind: "noop4", maxAttempts: 1 });
     await claimJob(db, { workerId: "a", leaseMs: 10, kinds: ["noop4"] });

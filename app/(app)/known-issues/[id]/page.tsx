@@ -26,6 +26,7 @@ import {
 } from "@/lib/known-issues";
 import { formatDistance, milesToUnit } from "@/lib/units";
 import { IssueId } from "./issue-id";
+import { VehicleLink } from "@/components/vehicles/vehicle-link";
 
 export const metadata: Metadata = { title: "Known issue" };
 
@@ -40,6 +41,7 @@ export default async function KnownIssuePage({ params }: { params: Promise<{ id:
   if (!issue) notFound();
   const evidence = await getKnownIssueEvidence(db, auth, issue);
   const unit = auth.organisation.distanceUnit;
+  const canSeeVehicles = can(auth.role, "vehicles:read");
   const mayManage = can(auth.role, "known-issues:manage");
   const mayComment = can(auth.role, "known-issues:comment");
   const range =
@@ -331,7 +333,11 @@ export default async function KnownIssuePage({ params }: { params: Promise<{ id:
 
       <div className="mt-4 grid gap-4 lg:grid-cols-2">
         <Panel title={`Vehicles affected (${evidence.affected.length})`}>
-          <VehicleList vehicles={evidence.affected.slice(0, 60)} unit={unit} />
+          <VehicleList
+            vehicles={evidence.affected.slice(0, 60)}
+            unit={unit}
+            canOpen={canSeeVehicles}
+          />
           {evidence.affected.length > 60 ? (
             <p className="mt-2 text-xs text-ink-soft">and {evidence.affected.length - 60} more</p>
           ) : null}
@@ -341,7 +347,11 @@ export default async function KnownIssuePage({ params }: { params: Promise<{ id:
             Same cohorts, not affected yet, with the latest odometer inside the range or within one
             band ({formatDistance(evidence.bandWidthMi, unit)}) below it. Nearest first.
           </p>
-          <VehicleList vehicles={evidence.atRisk.slice(0, 60)} unit={unit} />
+          <VehicleList
+            vehicles={evidence.atRisk.slice(0, 60)}
+            unit={unit}
+            canOpen={canSeeVehicles}
+          />
         </Panel>
       </div>
 
@@ -360,9 +370,9 @@ export default async function KnownIssuePage({ params }: { params: Promise<{ id:
                       : "Something else"}
                 </span>{" "}
                 ·{" "}
-                <Link href={`/vehicles/${f.vehicleId}`}>
+                <VehicleLink id={f.vehicleId} canOpen={canSeeVehicles}>
                   {f.unitNumber ?? f.vin ?? `#${f.vehicleId}`}
-                </Link>
+                </VehicleLink>
                 {f.odometerMi !== null ? ` at ${formatDistance(f.odometerMi, unit)}` : ""} ·{" "}
                 {f.userName ?? "someone"}, {f.createdAt.slice(0, 10)}
                 {f.cause ? <span className="block text-ink-soft">{f.cause}</span> : null}
@@ -401,6 +411,7 @@ export default async function KnownIssuePage({ params }: { params: Promise<{ id:
 function VehicleList({
   vehicles,
   unit,
+  canOpen,
 }: {
   vehicles: {
     id: number;
@@ -409,19 +420,21 @@ function VehicleList({
     lastOdometerMi: number | null;
   }[];
   unit: "mi" | "km";
+  canOpen: boolean;
 }) {
   if (vehicles.length === 0) return <p className="text-sm text-ink-soft">None.</p>;
   return (
     <ul className="flex flex-wrap gap-2 text-sm">
       {vehicles.map((v) => (
         <li key={v.id}>
-          <Link
-            href={`/vehicles/${v.id}`}
+          <VehicleLink
+            id={v.id}
+            canOpen={canOpen}
             className="rounded border border-line px-2 py-1 no-underline hover:bg-sea-50"
           >
             {v.unitNumber ?? v.vin ?? `#${v.id}`}
             {v.lastOdometerMi !== null ? ` · ${formatDistance(v.lastOdometerMi, unit)}` : ""}
-          </Link>
+          </VehicleLink>
         </li>
       ))}
     </ul>

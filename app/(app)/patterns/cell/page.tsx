@@ -19,6 +19,7 @@ import { can } from "@/lib/auth/roles";
 import { milesToUnit } from "@/lib/units";
 import { loadCell } from "./load-cell";
 import { queryValues, type PageSearchParams } from "@/lib/search-params";
+import { VehicleLink } from "@/components/vehicles/vehicle-link";
 
 export const metadata: Metadata = { title: "Pattern detail" };
 
@@ -40,6 +41,7 @@ export default async function CellPage({ searchParams }: { searchParams: PageSea
   const { auth, key, detail } = await loadCell(query);
   if (!key || !detail) notFound();
   const unit = auth.organisation.distanceUnit;
+  const canSeeVehicles = can(auth.role, "vehicles:read");
   const c = detail.cell;
   const cohort = `${key.make} ${key.model} ${key.generation}`;
   const band = formatBand(c.bandFrom, c.bandTo, unit);
@@ -157,12 +159,13 @@ export default async function CellPage({ searchParams }: { searchParams: PageSea
           <ul className="flex flex-wrap gap-2 text-sm">
             {detail.vehicles.map((v) => (
               <li key={v.vehicleId}>
-                <Link
-                  href={`/vehicles/${v.vehicleId}`}
+                <VehicleLink
+                  id={v.vehicleId}
+                  canOpen={canSeeVehicles}
                   className="rounded border border-line px-2 py-1 no-underline hover:bg-sea-50"
                 >
                   {v.unitNumber ?? v.vin ?? `#${v.vehicleId}`} · {v.repairs}
-                </Link>
+                </VehicleLink>
               </li>
             ))}
           </ul>
@@ -247,9 +250,9 @@ export default async function CellPage({ searchParams }: { searchParams: PageSea
                     {l.roNumber}
                   </td>
                   <td className="whitespace-nowrap py-1.5 pr-3">
-                    <Link href={`/vehicles/${l.vehicleId}`}>
+                    <VehicleLink id={l.vehicleId} canOpen={canSeeVehicles}>
                       {l.unitNumber ?? l.vin ?? `#${l.vehicleId}`}
-                    </Link>
+                    </VehicleLink>
                   </td>
                   <td className="whitespace-nowrap py-1.5 pr-3">{l.openedOn}</td>
                   <td className="whitespace-nowrap py-1.5 pr-3 text-right tabular-nums">
