@@ -102,6 +102,8 @@ test("a VIN that is not in the organisation is decoded and said plainly; a bad c
   await expect(page.getByRole("alert").first()).toContainText(
     "No vehicle with VIN 1M8GDM9A1KP042788",
   );
+  // A technician may not add vehicles: the page says who can, rather than offering it.
+  await expect(page.getByRole("alert").first()).toContainText("ask a manager to add the vehicle");
   await expect(page.getByTestId("vin-check")).toContainText("warning: check digit does not match");
   await expect(page.getByTestId("vin-check")).toContainText("model year 1989"); // position 7 is a digit: 1980–2009 cycle (49 CFR 565, 73 FR 23367);
   await expect(page.locator("#dtc-error")).toContainText("Not a diagnostic trouble code");

@@ -177,6 +177,7 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
             vinCheck={vinCheck}
             unitQuery={q?.unit}
             orgName={auth.organisation.name}
+            canAddVehicle={can(auth.role, "vehicles:write")}
             codes={codes.codes}
             symptom={symptom}
             unit={unit}
@@ -289,6 +290,7 @@ function VehiclePanel({
   vinCheck,
   unitQuery,
   orgName,
+  canAddVehicle,
   codes,
   symptom,
   unit,
@@ -297,6 +299,7 @@ function VehiclePanel({
   vinCheck: VinCheck | null;
   unitQuery?: string;
   orgName: string;
+  canAddVehicle: boolean;
   codes: ReturnType<typeof readCodes>["codes"];
   symptom: ReturnType<typeof readSymptom>;
   unit: "mi" | "km";
@@ -352,7 +355,13 @@ function VehiclePanel({
             <p role="alert" className="rounded-md bg-alarm-100 px-3 py-2 text-alarm-700">
               No vehicle with {vinCheck ? `VIN ${vinCheck.vin}` : `unit number ${unitQuery ?? ""}`}
               {vinCheck && unitQuery ? ` or unit number ${unitQuery}` : ""} in {orgName}. Check the
-              characters, or add the vehicle first; nothing can be ranked without its cohort.
+              characters, or{" "}
+              {canAddVehicle ? (
+                <Link href="/vehicles">add the vehicle</Link>
+              ) : (
+                "ask a manager to add the vehicle"
+              )}{" "}
+              first; nothing can be ranked without its cohort.
             </p>
           )}
           {vinCheck ? <VinFacts check={vinCheck} /> : null}
