@@ -1,5 +1,8 @@
 import { median as ssMedian } from "simple-statistics";
 
+/** The watch-list's default horizon: the next 10,000 of the organisation's unit (mi or km). */
+export const AT_RISK_HORIZON = 10_000;
+
 /**
  * Expected failures of one fault over the next miles a vehicle drives: the cohort's rate per
  * mile in each mileage band, times the miles the vehicle will spend in that band (the

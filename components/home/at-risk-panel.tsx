@@ -8,17 +8,21 @@ import { fetchJson } from "@/components/ui/fetch-json";
 import type { AtRiskRow } from "@/db/queries/at-risk";
 import { formatSig } from "@/lib/format";
 import { formatDistance } from "@/lib/units";
+import { AT_RISK_HORIZON } from "@/lib/at-risk";
 
 const SHOWN = 5;
 
 /**
- * Home: the vehicles most at risk over the next 10,000 (mi or km), fetched after the page
+ * Home: the vehicles most at risk over the watch-list's default horizon, fetched after the page
  * shows (the list reads every confirmed known issue's evidence, too slow to hold the page for).
  */
 export function AtRiskPanel({ unit }: { unit: "mi" | "km" }) {
   const query = useQuery({
     queryKey: ["home-at-risk"],
-    queryFn: () => fetchJson<{ rows: AtRiskRow[]; total: number }>(`/api/at-risk?limit=${SHOWN}`),
+    queryFn: () =>
+      fetchJson<{ rows: AtRiskRow[]; total: number }>(
+        `/api/at-risk?limit=${SHOWN}&next=${AT_RISK_HORIZON}`,
+      ),
   });
   return (
     <Panel title="Vehicles at risk">
@@ -40,8 +44,8 @@ export function AtRiskPanel({ unit }: { unit: "mi" | "km" }) {
         <>
           <p className="text-sm text-ink-soft">
             {query.data.total.toLocaleString("en-GB")} vehicles inside or near the mileage range of
-            a confirmed known issue or a signal; the most expected failures over the next 10,000{" "}
-            {unit} first.
+            a confirmed known issue or a signal; the most expected failures over the next{" "}
+            {AT_RISK_HORIZON.toLocaleString("en-GB")} {unit} first.
           </p>
           <ul className="mt-2 divide-y divide-line/60 text-sm" aria-label="Vehicles most at risk">
             {query.data.rows.map((r) => (

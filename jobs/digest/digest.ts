@@ -8,6 +8,7 @@ import { getConfiguredBaseUrl } from "@/lib/env";
 import { STATE_LABELS } from "@/lib/known-issues";
 import { unitToMiles } from "@/lib/units";
 import type { KnownIssueState } from "@/db/schema";
+import { AT_RISK_HORIZON } from "@/lib/at-risk";
 
 /** ISO week key such as "2026-W49" (ISO 8601: weeks start on Monday; week 1 holds 4 January). */
 export function isoWeekKey(date: Date): string {
@@ -114,7 +115,7 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
   const { rows } = await getAtRiskVehicles(
     db,
     { organisationId, userId: null, role: "admin" },
-    { nextMiles: unitToMiles(10_000, unit) },
+    { nextMiles: unitToMiles(AT_RISK_HORIZON, unit) },
   );
   return {
     organisation: { id: org.id, name: org.name, distanceUnit: unit },
@@ -173,7 +174,7 @@ export function renderDigest(d: Digest): { subject: string; text: string; html: 
       empty: "No vehicle is approaching a confirmed known issue or a signal.",
       items: d.atRisk.map(
         (a) =>
-          `${a.vehicle}: ${a.why} (${a.expected.toFixed(2)} failures expected in the next 10,000 ${d.organisation.distanceUnit})`,
+          `${a.vehicle}: ${a.why} (${a.expected.toFixed(2)} failures expected in the next ${AT_RISK_HORIZON.toLocaleString("en-GB")} ${d.organisation.distanceUnit})`,
       ),
     },
   ];

@@ -12,11 +12,18 @@ import { requirePage } from "@/lib/auth/guard";
 import { formatMoney, formatSig } from "@/lib/format";
 import { formatDistance, unitToMiles } from "@/lib/units";
 import { queryValues, type PageSearchParams } from "@/lib/search-params";
+import { AT_RISK_HORIZON } from "@/lib/at-risk";
 
 export const metadata: Metadata = { title: "At risk" };
 
 const Query = z.object({
-  next: z.coerce.number().int().min(100).max(200_000).catch(10_000).default(10_000),
+  next: z.coerce
+    .number()
+    .int()
+    .min(100)
+    .max(200_000)
+    .catch(AT_RISK_HORIZON)
+    .default(AT_RISK_HORIZON),
 });
 
 export default async function AtRiskPage({ searchParams }: { searchParams: PageSearchParams }) {

@@ -4,11 +4,12 @@ import { getAtRiskVehicles } from "@/db/queries/at-risk";
 import { apiRoute, jsonError } from "@/lib/auth/guard";
 import { toCsv } from "@/lib/import";
 import { unitToMiles } from "@/lib/units";
+import { AT_RISK_HORIZON } from "@/lib/at-risk";
 
 export const dynamic = "force-dynamic";
 
 const Query = z.object({
-  next: z.coerce.number().int().min(100).max(200_000).default(10_000),
+  next: z.coerce.number().int().min(100).max(200_000).default(AT_RISK_HORIZON),
   format: z.enum(["json", "csv"]).default("json"),
   /** JSON only: the first rows (most expected failures first); `total` counts them all. */
   limit: z.coerce.number().int().min(1).max(1000).optional(),
