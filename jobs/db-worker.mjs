@@ -13,8 +13,10 @@
 //                                       a read transaction (mode "read") on the file
 //   { type: "query", id, sql, args? } → { type: "rows", id, rows }
 //   { type: "exec", sql }             → nothing (an error is reported and ends the thread)
-//   { type: "insert", table, columns, values, where?, onConflict? }
-//                                     → nothing; values is flat, row after row; see insertRows
+//   { type: "insert", table, columns, values, fixed?, where?, onConflict? }
+//                                     → nothing; values is flat, row after row; fixed is
+//                                       [[column, integer], …], the same for every row; see
+//                                       insertRows
 //   { type: "commit", sql, query }    → { type: "committed", rows, busyMs }: runs sql, reads
 //                                       query, commits; busyMs says where the thread's time
 //                                       went (for the import's log)
@@ -35,15 +37,22 @@ const ROWS_PER_STATEMENT = 100;
 const IDENTIFIER = /^[a-z_][a-z0-9_]*$/;
 
 function prepared(msg, rows) {
-  const key = `${msg.table}|${msg.columns.join(",")}|${msg.where ?? ""}|${msg.onConflict ? 1 : 0}|${rows}`;
+  const fixed = msg.fixed ?? [];
+  const key = `${msg.table}|${msg.columns.join(",")}|${fixed.join(",")}|${msg.where ?? ""}|${msg.onConflict ? 1 : 0}|${rows}`;
   let statement = statements.get(key);
   if (!statement) {
-    if (!IDENTIFIER.test(msg.table) || !msg.columns.every((c) => IDENTIFIER.test(c))) {
+    const names = [...msg.columns, ...fixed.map(([c]) => c)];
+    if (!IDENTIFIER.test(msg.table) || !names.every((c) => IDENTIFIER.test(c))) {
       throw new Error("insert: table and column names must be plain identifiers");
     }
-    const tuple = `(${msg.columns.map(() => "?").join(",")})`;
+    if (!fixed.every(([, v]) => Number.isSafeInteger(v))) {
+      throw new Error("insert: fixed values must be integers");
+    }
+    // Fixed values (the organisation's and the import's ids) are written into the statement,
+    // after the bound ones: every bound value costs the binding about 0.1 µs or more.
+    const tuple = `(${[...msg.columns.map(() => "?"), ...fixed.map(([, v]) => String(v))].join(",")})`;
     const list = Array.from({ length: rows }, () => tuple).join(",");
-    const head = `insert into ${msg.table} (${msg.columns.join(",")})`;
+    const head = `insert into ${msg.table} (${names.join(",")})`;
     // Columns of a VALUES list are named column1, column2, … (for the condition).
     const sql = msg.where
       ? `${head} select * from (values ${list}) where ${msg.where}`

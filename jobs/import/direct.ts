@@ -31,8 +31,13 @@ export function isDirectKind(kind: ImportKind): kind is DirectKind {
 /** Integers only are written into the SQL text as ids; everything else goes through sqlLiteral. */
 const int = (n: number) => sqlInt(n);
 
-/** Least time between two writes of the progress file. */
-const PROGRESS_EVERY_MS = 250;
+/**
+ * Least time between two writes of the progress file (the progress bar polls about every
+ * second). Replacing a file by rename makes the file system flush the new one first, which
+ * waits behind the writer's log writes: every 250 ms cost the reading thread about half a
+ * second of a million-row import.
+ */
+const PROGRESS_EVERY_MS = 1_000;
 
 /** Highest ids and whether the organisation already has records, read inside the transaction. */
 type Bases = { vehicles: number; orders: number; lines: number; events: number; hasOrders: number };
@@ -167,62 +172,51 @@ class FileOrders {
   }
 }
 
+// The organisation's and the import's ids are the same in every row: they go into the
+// statements as fixed values (FIXED below), not bound row by row.
 const VEHICLE_COLUMNS = [
   "id",
-  "organisation_id",
   "vin",
   "unit_number",
   "make",
   "model",
   "model_year",
   "generation_id",
-  "import_id",
 ];
 const ORDER_COLUMNS = [
   "id",
-  "organisation_id",
   "vehicle_id",
   "ro_number",
   "opened_on",
   "closed_on",
   "odometer_mi",
   "vendor",
-  "import_id",
 ];
 // STAGING.repairs order: 0–4 vehicle, 5 ro_number, 6 opened_on, 7 closed_on, 8 odometer_mi,
 // then the line's own columns (complaint … is_warranty), copied as they are.
 const LINE_OWN_FROM = 9;
 const LINE_COLUMNS = [
   "id",
-  "organisation_id",
   "repair_order_id",
   "vehicle_id",
   "line_no",
   "opened_on",
   "odometer_mi",
   ...STAGING.repairs.columns.slice(LINE_OWN_FROM),
-  "import_id",
 ];
+/** The name of a column in an INSERT's VALUES list (column1, column2, …), for a condition. */
+const valuesColumn = (columns: readonly string[], name: string) =>
+  `column${columns.indexOf(name) + 1}`;
 /** Fault and fuel rows: STAGING order after the five vehicle columns. */
 const EVENT_FROM = 5;
 const EVENTS: Record<"faults" | "fuel", { table: string; columns: string[] }> = {
   faults: {
     table: "fault_events",
-    columns: [
-      "organisation_id",
-      "vehicle_id",
-      ...STAGING.faults.columns.slice(EVENT_FROM),
-      "import_id",
-    ],
+    columns: ["vehicle_id", ...STAGING.faults.columns.slice(EVENT_FROM)],
   },
   fuel: {
     table: "fuel_transactions",
-    columns: [
-      "organisation_id",
-      "vehicle_id",
-      ...STAGING.fuel.columns.slice(EVENT_FROM),
-      "import_id",
-    ],
+    columns: ["vehicle_id", ...STAGING.fuel.columns.slice(EVENT_FROM)],
   },
 };
 
@@ -263,20 +257,26 @@ function directSink(
   const checkExisting = bases.hasOrders !== 0;
   // An RO number already in the organisation's data is not loaded again, nor its lines.
   const orderWhere = checkExisting
-    ? `not exists (select 1 from repair_orders o where o.organisation_id = ${org} and o.ro_number = column4)`
+    ? `not exists (select 1 from repair_orders o where o.organisation_id = ${org} and o.ro_number = ${valuesColumn(ORDER_COLUMNS, "ro_number")})`
     : undefined;
   const lineWhere = checkExisting
-    ? `exists (select 1 from repair_orders o where o.id = column3 and o.import_id = ${imp})`
+    ? `exists (select 1 from repair_orders o where o.id = ${valuesColumn(LINE_COLUMNS, "repair_order_id")} and o.import_id = ${imp})`
     : undefined;
+  const fixed: [string, number][] = [
+    ["organisation_id", org],
+    ["import_id", imp],
+  ];
 
   const sendChunk = () => {
-    for (const piece of vehicleRows.take()) writer.insert("vehicles", VEHICLE_COLUMNS, piece);
+    for (const piece of vehicleRows.take()) {
+      writer.insert("vehicles", VEHICLE_COLUMNS, piece, { fixed });
+    }
     if (kind === "repairs") {
       for (const piece of orderRows.take()) {
-        writer.insert("repair_orders", ORDER_COLUMNS, piece, { where: orderWhere });
+        writer.insert("repair_orders", ORDER_COLUMNS, piece, { fixed, where: orderWhere });
       }
       for (const piece of lineRows.take()) {
-        writer.insert("repair_lines", LINE_COLUMNS, piece, { where: lineWhere });
+        writer.insert("repair_lines", LINE_COLUMNS, piece, { fixed, where: lineWhere });
       }
       if (nextLine >= firstLineOfChunk) {
         // DTCs are checked against SAE J2012 while reading ([0-9A-Z] only), so the
@@ -295,7 +295,7 @@ function directSink(
       // first of two equal rows in the file wins.
       const { table, columns } = EVENTS[kind];
       for (const piece of eventRows.take()) {
-        writer.insert(table, columns, piece, { onConflict: true });
+        writer.insert(table, columns, piece, { fixed, onConflict: true });
       }
     }
     firstLineOfChunk = nextLine + 1;
@@ -306,14 +306,12 @@ function directSink(
       const id = ++nextVehicle;
       vehicleRows.current.push(
         id,
-        org,
         cell(r.vin),
         cell(r.unitNumber),
         cell(r.make),
         cell(r.model),
         cell(r.modelYear),
         generationOf(r.make, r.model, r.modelYear),
-        imp,
       );
       vehicleRows.endRow();
       return id;
@@ -331,21 +329,18 @@ function directSink(
           touch(vehicleId, v[6], v[8]);
           orderRows.current.push(
             orders.id(order),
-            org,
             vehicleId,
             ro,
             cell(v[6]),
             cell(v[7]),
             cell(v[8]),
             cell(v[20]),
-            imp,
           );
           orderRows.endRow();
         }
         const line = lineRows.current;
         line.push(
           ++nextLine,
-          org,
           orders.id(order),
           orders.vehicleOf(order),
           orders.nextLine(order),
@@ -353,14 +348,12 @@ function directSink(
           cell(v[8]) ?? orders.odometerOf(order),
         );
         for (let i = LINE_OWN_FROM; i < v.length; i++) line.push(cell(v[i]));
-        line.push(imp);
         lineRows.endRow();
       } else {
         touch(vehicleId, v[5], v[6]);
         const event = eventRows.current;
-        event.push(org, vehicleId);
+        event.push(vehicleId);
         for (let i = EVENT_FROM; i < v.length; i++) event.push(cell(v[i]));
-        event.push(imp);
         eventRows.endRow();
       }
     },

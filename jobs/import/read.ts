@@ -15,6 +15,7 @@ import {
   type TypedRow,
 } from "@/lib/import";
 import { PermanentJobError } from "../errors";
+import { importParseOptions, MAX_RECORD_CHARS, recordBatches } from "./csv-stream";
 import { FingerprintSet, fingerprintValues } from "./fingerprint-set";
 import { OdometerChecks } from "./odometer-checks";
 import { insertStatements, type SqlValue } from "./sql-literal";
@@ -24,7 +25,6 @@ import { readingDate, STAGING } from "./stage-rows";
 const FLUSH_ROWS = 5_000;
 /** Warnings kept for the report (all are counted). */
 const MAX_STORED_WARNINGS = 50_000;
-const MAX_RECORD_CHARS = 1_000_000;
 
 export type ReadResult = {
   rowsTotal: number;
@@ -327,17 +327,7 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
     bytesRead += chunk.length;
   });
   const utf8 = strictUtf8();
-  const parser = source.pipe(utf8).pipe(
-    parse({
-      delimiter: input.delimiter,
-      bom: true,
-      relax_column_count: true,
-      // A stray quote inside an unquoted field is kept as text (common in exports).
-      relax_quotes: true,
-      skip_empty_lines: false,
-      max_record_size: MAX_RECORD_CHARS,
-    }),
-  );
+  const parser = source.pipe(utf8).pipe(parse(importParseOptions(input.delimiter)));
   const onError = (e: unknown) => parser.destroy(e instanceof Error ? e : new Error(String(e)));
   // pipe() does not pass errors on: the file's and the UTF-8 check's end the parser's loop.
   source.on("error", onError);
@@ -345,91 +335,92 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
 
   let isHeader = true;
   try {
-    for await (const record of parser as AsyncIterable<string[]>) {
-      if (isHeader) {
-        isHeader = false;
-        const header = record.map((h) => h.trim());
-        if (header.join("\u0001") !== input.headers.map((h) => h.trim()).join("\u0001")) {
-          throw fileError(
-            "The file's header row is not the one that was mapped. Upload the file again.",
-          );
-        }
-        continue;
-      }
-      rowNumber++;
-      if (record.length === 1 && record[0]?.trim() === "") continue; // a blank line
-      const result = reader(record, rowNumber);
-      if (!result.ok) {
-        if (result.issues.length === 1 && result.issues[0]?.message === "The row is empty.")
+    for await (const batch of recordBatches(parser))
+      for (const record of batch) {
+        if (isHeader) {
+          isHeader = false;
+          const header = record.map((h) => h.trim());
+          if (header.join("\u0001") !== input.headers.map((h) => h.trim()).join("\u0001")) {
+            throw fileError(
+              "The file's header row is not the one that was mapped. Upload the file again.",
+            );
+          }
           continue;
-        rowsTotal++;
-        rejected++;
-        addIssues(record, "rejected", result.issues);
-      } else {
-        rowsTotal++;
-        const row = result.row as TypedRow<ImportKind>;
-        const rowWarnings: RowIssue[] = [...result.warnings];
-        let isOk = true;
-        let vehicleId: number | null = null;
-        if (hasVehicleColumn) {
-          const r = row as TypedRow<"repairs">;
-          const isKnown =
-            (r.vin !== null && knownVins.has(r.vin)) ||
-            (r.unitNumber !== null && knownUnits.has(r.unitNumber));
-          vehicleId =
-            (r.vin !== null ? knownVins.get(r.vin) : undefined) ??
-            (r.unitNumber !== null ? knownUnits.get(r.unitNumber) : undefined) ??
-            null;
-          if (!isKnown) {
-            if (r.make && r.model && r.modelYear) {
-              // Added by this import (the sink gives its id, or null until it is applied).
-              vehicleId = sink.newVehicle(r);
-              if (r.vin) knownVins.set(r.vin, vehicleId);
-              if (r.unitNumber) knownUnits.set(r.unitNumber, vehicleId);
-            } else {
-              isOk = false;
-              rejected++;
-              addIssues(record, "rejected", [
-                {
-                  column: r.vin ? "vin" : "unit_number",
-                  message: `unknown vehicle ${r.vin ?? r.unitNumber}, and the row has no make, model and model year to add it`,
-                },
-              ]);
+        }
+        rowNumber++;
+        if (record.length === 1 && record[0]?.trim() === "") continue; // a blank line
+        const result = reader(record, rowNumber);
+        if (!result.ok) {
+          if (result.issues.length === 1 && result.issues[0]?.message === "The row is empty.")
+            continue;
+          rowsTotal++;
+          rejected++;
+          addIssues(record, "rejected", result.issues);
+        } else {
+          rowsTotal++;
+          const row = result.row as TypedRow<ImportKind>;
+          const rowWarnings: RowIssue[] = [...result.warnings];
+          let isOk = true;
+          let vehicleId: number | null = null;
+          if (hasVehicleColumn) {
+            const r = row as TypedRow<"repairs">;
+            const isKnown =
+              (r.vin !== null && knownVins.has(r.vin)) ||
+              (r.unitNumber !== null && knownUnits.has(r.unitNumber));
+            vehicleId =
+              (r.vin !== null ? knownVins.get(r.vin) : undefined) ??
+              (r.unitNumber !== null ? knownUnits.get(r.unitNumber) : undefined) ??
+              null;
+            if (!isKnown) {
+              if (r.make && r.model && r.modelYear) {
+                // Added by this import (the sink gives its id, or null until it is applied).
+                vehicleId = sink.newVehicle(r);
+                if (r.vin) knownVins.set(r.vin, vehicleId);
+                if (r.unitNumber) knownUnits.set(r.unitNumber, vehicleId);
+              } else {
+                isOk = false;
+                rejected++;
+                addIssues(record, "rejected", [
+                  {
+                    column: r.vin ? "vin" : "unit_number",
+                    message: `unknown vehicle ${r.vin ?? r.unitNumber}, and the row has no make, model and model year to add it`,
+                  },
+                ]);
+              }
+            }
+            const on = isOk ? readingDate(kind, row) : null;
+            if (on && r.odometerMi !== null) {
+              const problem = odometer.check(r.vin ?? `#${r.unitNumber}`, on, r.odometerMi);
+              if (problem) rowWarnings.push({ column: "odometer", message: problem });
             }
           }
-          const on = isOk ? readingDate(kind, row) : null;
-          if (on && r.odometerMi !== null) {
-            const problem = odometer.check(r.vin ?? `#${r.unitNumber}`, on, r.odometerMi);
-            if (problem) rowWarnings.push({ column: "odometer", message: problem });
+          if (isOk) {
+            const values = layout.toValues(row as never, componentOf);
+            if (kind === "repairs") {
+              if (!seen.add(fingerprintValues(values))) {
+                isOk = false;
+                duplicatesInFile++;
+              }
+            }
+            if (isOk) sink.add(rowNumber, values, vehicleId);
+          }
+          if (isOk) {
+            if (rowWarnings.length) {
+              warnings++;
+              if (storedWarnings < MAX_STORED_WARNINGS) {
+                storedWarnings++;
+                addIssues(record, "warning", rowWarnings);
+              }
+            }
           }
         }
-        if (isOk) {
-          const values = layout.toValues(row as never, componentOf);
-          if (kind === "repairs") {
-            if (!seen.add(fingerprintValues(values))) {
-              isOk = false;
-              duplicatesInFile++;
-            }
-          }
-          if (isOk) sink.add(rowNumber, values, vehicleId);
-        }
-        if (isOk) {
-          if (rowWarnings.length) {
-            warnings++;
-            if (storedWarnings < MAX_STORED_WARNINGS) {
-              storedWarnings++;
-              addIssues(record, "warning", rowWarnings);
-            }
+        if (sink.pending >= chunkRows || pendingIssues.length >= FLUSH_ROWS) {
+          if (!(await flush())) {
+            parser.destroy();
+            return { rowsTotal, staged, rejected, warnings, duplicatesInFile, isCancelled: true };
           }
         }
       }
-      if (sink.pending >= chunkRows || pendingIssues.length >= FLUSH_ROWS) {
-        if (!(await flush())) {
-          parser.destroy();
-          return { rowsTotal, staged, rejected, warnings, duplicatesInFile, isCancelled: true };
-        }
-      }
-    }
   } catch (e) {
     throw describeParseError(e, rowNumber);
   }

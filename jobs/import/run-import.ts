@@ -1,3 +1,4 @@
+import { performance } from "node:perf_hooks";
 import { eq } from "drizzle-orm";
 import { localDatabasePath, type Db } from "@/db";
 import { auditLog, imports } from "@/db/schema";
@@ -184,6 +185,7 @@ async function runInOneTransaction(
 ): Promise<void> {
   const { importId } = input;
   const started = performance.now();
+  const loopAtStart = performance.eventLoopUtilization();
   hooks.holdHeartbeat?.(true);
   let writer: ImportWriter | null = null;
   try {
@@ -229,7 +231,7 @@ async function runInOneTransaction(
     }
     writer = null; // committed
     hooks.log?.(
-      `import ${importId}: read and wrote ${result.rowsTotal} rows in one transaction in ${((performance.now() - started) / 1000).toFixed(1)} s (writer busy, ms: ${JSON.stringify(result.writerBusyMs)})`,
+      `import ${importId}: read and wrote ${result.rowsTotal} rows in one transaction in ${((performance.now() - started) / 1000).toFixed(1)} s (reading thread busy ${Math.round(performance.eventLoopUtilization(loopAtStart).active)} ms; writer busy, ms: ${JSON.stringify(result.writerBusyMs)})`,
     );
   } finally {
     await writer?.rollback();

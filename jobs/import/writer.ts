@@ -30,14 +30,16 @@ export class ImportWriter extends DbThread {
 
   /**
    * Queues rows for a prepared multi-row INSERT; `values` holds them one after another, in the
-   * order of `columns`. With `where`, each row is inserted only if the condition (on column1,
-   * column2, … of the row) holds; with `onConflict`, a row that breaks a unique index is skipped.
+   * order of `columns`; `fixed` columns take the same integer in every row (written into the
+   * statement, not bound). With `where`, each row is inserted only if the condition (on column1,
+   * column2, … of the row, the fixed ones last) holds; with `onConflict`, a row that breaks a
+   * unique index is skipped.
    */
   insert(
     table: string,
     columns: readonly string[],
     values: (string | number | null)[],
-    opts: { where?: string; onConflict?: boolean } = {},
+    opts: { fixed?: [string, number][]; where?: string; onConflict?: boolean } = {},
   ): void {
     if (this.failure || values.length === 0) return;
     this.worker.postMessage({ type: "insert", table, columns, values, ...opts });

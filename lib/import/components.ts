@@ -2,6 +2,7 @@
  * Matching the component text of an imported row to Recurra's component list
  * (system → component) and to an organisation's own aliases for it.
  */
+import { memoText } from "./memo";
 
 export type ComponentRef = { id: number; slug: string; system: string; name: string };
 
@@ -58,12 +59,12 @@ export function buildComponentIndex(
     const key = componentKey(c.name);
     byName.set(key, byName.has(key) ? null : c.id);
   }
-  return (text) => {
-    if (!text) return null;
+  const lookup = memoText((text: string): number | null => {
     const key = componentKey(text);
     if (key === "") return null;
     return exact.get(key) ?? byName.get(key) ?? null;
-  };
+  });
+  return (text) => (text ? lookup(text) : null);
 }
 
 const lookups = new WeakMap<

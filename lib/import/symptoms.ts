@@ -3,6 +3,7 @@
  * English, and the reader for a symptom column.
  */
 import { SYMPTOMS, type Symptom } from "@/db/schema/records";
+import { memoText } from "./memo";
 import { buildPhraseClassifier } from "./phrase-rules";
 
 /** Negations before a verb; apostrophes are dropped when words are split ("won't" → "wont"). */
@@ -219,7 +220,7 @@ const RULES: readonly (readonly [Symptom, readonly string[]])[] = [
   ],
 ];
 
-const classify = buildPhraseClassifier(RULES);
+const classify = memoText(buildPhraseClassifier(RULES));
 
 /**
  * The symptom a complaint describes, by Recurra's ordered keyword rules (specific before

@@ -5,17 +5,31 @@
  */
 import { createReadStream, readFileSync } from "node:fs";
 import { basename } from "node:path";
+import { parse } from "csv-parse";
 import { getDatabase } from "@/db";
 import { migrateDatabase } from "@/db/migrate";
 import { getImport, startImport } from "@/db/queries/imports";
 import { createOrganisation } from "@/db/queries/system";
 import { loadReferenceData } from "@/db/seed/reference";
+import { importParseOptions, recordBatches } from "@/jobs/import/csv-stream";
 import { mappingByName } from "@/jobs/import/inspect";
 import { receiveUpload } from "@/jobs/import/upload";
 import { startWorker } from "@/jobs/worker";
 
 const file = process.argv[2];
-if (!file) throw new Error("usage: import-run.ts <file.csv>");
+if (!file) throw new Error("usage: import-run.ts <file.csv> [--parse-only]");
+
+if (process.argv[3] === "--parse-only") {
+  // csv-parse alone on the same file, with the import's options: the least a reading thread
+  // built on it can take, before any check or write.
+  const started = performance.now();
+  let records = 0;
+  const parser = createReadStream(file).pipe(parse(importParseOptions(",")));
+  for await (const batch of recordBatches(parser)) records += batch.length;
+  const seconds = (performance.now() - started) / 1000;
+  process.stdout.write(`${JSON.stringify({ records, seconds })}\n`);
+  process.exit(0);
+}
 const { db, client } = await getDatabase();
 await migrateDatabase(db);
 await loadReferenceData(db);
@@ -43,7 +57,21 @@ const { jobId } = await startImport(db, scope, importId, {
   mapping: mappingByName(inspection.headers, inspection.mapping),
   read: inspection.read,
 });
-await startWorker({ db, jobId, isOneShot: true, log: (m) => process.stderr.write(`${m}\n`) });
+// The import's log line says how long each thread was busy (jobs/import/run-import.ts).
+let busy: { readerMs: number; writerMs: number } | null = null;
+await startWorker({
+  db,
+  jobId,
+  isOneShot: true,
+  log: (m) => {
+    process.stderr.write(`${m}\n`);
+    const found = /reading thread busy (\d+) ms; writer busy, ms: (\{[^}]*\})/.exec(m);
+    if (found) {
+      const writer = Object.values(JSON.parse(found[2] as string) as Record<string, number>);
+      busy = { readerMs: Number(found[1]), writerMs: writer.reduce((a, b) => a + b, 0) };
+    }
+  },
+});
 const seconds = (performance.now() - started) / 1000;
 const result = await getImport(db, scope, importId);
 // VmHWM: the process's peak resident set size, as the kernel counted it.
@@ -56,6 +84,7 @@ process.stdout.write(
     rejected: result.rowsRejected,
     seconds,
     peakRssMb: hwm ? Number(hwm[1]) / 1024 : null,
+    busy,
   })}\n`,
 );
 client.close();

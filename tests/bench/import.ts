@@ -7,6 +7,9 @@
  *    (tests/bench/import-run.ts), timing it and reading that process's peak RSS. The child runs
  *    compiled JavaScript (bundled with esbuild first), as the product does in production:
  *    tsx's on-the-fly compiler would add a loader thread and about 110 MB to the process.
+ *    It also times csv-parse alone on the same file (same options, its own process), and prints
+ *    how long each of the import's two threads was busy: the reading one (parse and checks)
+ *    and the writing one (SQLite), each against the floor.
  * 4. With `--server`: the same import again into a fresh libSQL server (sqld on loopback, see
  *    tests/support/sqld.ts), and the ratio server / file.
  * Prints both rates, their ratio and the peak RSS, and as the last line one JSON object.
@@ -55,6 +58,8 @@ type ImportRun = {
   imported: number;
   seconds: number;
   peakRssMb: number;
+  /** How long each thread of the import was busy (a file database's one-transaction path). */
+  busy: { readerMs: number; writerMs: number } | null;
 };
 
 // The import run as one compiled file; packages stay in node_modules (the native ones must).
@@ -87,7 +92,22 @@ function runProductImport(url: string): ImportRun {
 }
 
 const product = runProductImport(`file:${productDb}`);
+if (!product.busy) throw new Error("the benchmark import did not report its threads' busy time");
 
+// csv-parse alone on the same file, in a process of its own (tests/bench/import-run.ts).
+const parseOnly = JSON.parse(
+  execFileSync(process.execPath, ["--conditions=react-server", runner, csv, "--parse-only"], {
+    stdio: ["ignore", "pipe", "inherit"],
+  })
+    .toString()
+    .trim()
+    .split("\n")
+    .at(-1) ?? "{}",
+) as { records: number; seconds: number };
+if (parseOnly.records !== rows + 1) throw new Error("csv-parse alone did not read every row");
+
+const timesFloor = (seconds: number) =>
+  (Math.round((seconds / floorSeconds) * 100) / 100).toFixed(2);
 const rowsPerSecond = Math.round(rows / product.seconds);
 const floorRowsPerSecond = Math.round(rows / floorSeconds);
 const ratio = Math.round((product.seconds / floorSeconds) * 100) / 100;
@@ -97,6 +117,7 @@ const lines = [
   `Recurra import (upload → check → write): ${product.seconds.toFixed(2)} s, ${rowsPerSecond.toLocaleString("en-GB")} rows/s, peak RSS ${peakRssMb} MB`,
   `sqlite3 .import into a plain table (floor):      ${floorSeconds.toFixed(2)} s, ${floorRowsPerSecond.toLocaleString("en-GB")} rows/s`,
   `ratio (Recurra time / floor time): ${ratio}  (target ≤ 4; peak RSS target ≤ 300 MB)`,
+  `where the time goes: reading thread busy ${(product.busy.readerMs / 1000).toFixed(2)} s (csv-parse alone ${parseOnly.seconds.toFixed(2)} s, ${timesFloor(parseOnly.seconds)}× the floor), writer thread busy ${(product.busy.writerMs / 1000).toFixed(2)} s (${timesFloor(product.busy.writerMs / 1000)}× the floor)`,
 ];
 const figures: Record<string, unknown> = {
   rows,
@@ -104,6 +125,9 @@ const figures: Record<string, unknown> = {
   floorRowsPerSecond,
   ratio,
   peakRssMb,
+  readerBusySeconds: Math.round(product.busy.readerMs / 10) / 100,
+  writerBusySeconds: Math.round(product.busy.writerMs / 10) / 100,
+  csvParseSeconds: Math.round(parseOnly.seconds * 100) / 100,
 };
 
 if (values.server) {
