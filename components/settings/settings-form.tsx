@@ -5,6 +5,7 @@ import { updateSettingsAction } from "@/app/(app)/settings/actions";
 import { buttonClass, inputClass } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { useFormAction } from "@/components/ui/use-form-action";
+import { parseFormNumber } from "@/lib/form-number";
 import { convertDistanceSetting } from "@/lib/units";
 
 /** The settings given in the organisation's distance unit. */
@@ -37,8 +38,9 @@ export function SettingsForm({ values }: { values: SettingsValues }) {
     for (const name of DISTANCE_FIELDS) {
       const input = formRef.current?.elements.namedItem(name);
       if (!(input instanceof HTMLInputElement)) continue;
-      const value = Number(input.value.replaceAll(",", "").trim());
-      if (input.value.trim() === "" || !Number.isFinite(value)) continue;
+      // Read as the server reads it (lib/form-number.ts): "25,000" is 25000.
+      const value = parseFormNumber(input.value);
+      if (value === null) continue;
       // Back to the saved unit with the figure untouched: the saved figure, exactly.
       const saved = values[name];
       const isUntouched = value === convertDistanceSetting(saved, values.distanceUnit, unit);

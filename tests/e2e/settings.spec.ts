@@ -21,3 +21,27 @@ test("switching the distance unit converts the distances shown, without saving",
   await unit.selectOption(from);
   await expect(page.getByLabel(`Mileage band width (${from})`)).toHaveValue(String(before));
 });
+
+test("a distance typed with thousands separators saves as that number; an empty one is refused", async ({
+  page,
+}) => {
+  await signIn(page, "admin");
+  await page.goto("/settings");
+  const unit = (await page.getByLabel("Distances in").inputValue()) as "mi" | "km";
+  const band = page.getByLabel(`Mileage band width (${unit})`);
+  const before = Number(await band.inputValue());
+  expect(before).toBeGreaterThanOrEqual(1000);
+
+  await band.fill("");
+  await page.getByRole("button", { name: "Save settings" }).click();
+  await expect(page.locator("#bandWidth-error")).toHaveText("Give the mileage band width.");
+
+  // The same value as before, as people write it ("25,000"): nothing changes but the form is
+  // accepted.
+  await band.fill(before.toLocaleString("en-GB"));
+  expect(await band.inputValue()).toContain(",");
+  await page.getByRole("button", { name: "Save settings" }).click();
+  await expect(page.getByText("Settings saved.", { exact: true })).toBeVisible();
+  await page.reload();
+  await expect(page.getByLabel(`Mileage band width (${unit})`)).toHaveValue(String(before));
+});
