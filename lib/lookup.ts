@@ -6,6 +6,7 @@ import { z } from "zod";
 import { SYMPTOMS, type Symptom } from "@/db/schema/records";
 import { findComebacks, type ComebackWindow, type RepairVisit } from "@/lib/comebacks";
 import { parseDtc, type DtcInfo } from "@/lib/dtc";
+import { parseFormNumber } from "@/lib/form-number";
 import { parseSymptom, symptomFromText } from "@/lib/import/symptoms";
 import { wilsonInterval } from "@/lib/stats";
 
@@ -30,13 +31,27 @@ const optionalText = (max: number, label: string) =>
 
 /**
  * The lookup's GET parameters. Every field is optional on its own; the page asks for a VIN or a
- * unit number before it looks anything up. Bad values get a message per field.
+ * unit number, or for the make, model and model year of a vehicle not on file, before it looks
+ * anything up. Bad values get a message per field.
  */
 export const LookupQuery = z.object({
   vin: optionalText(40, "VIN"),
   unit: optionalText(40, "Unit number"),
+  make: optionalText(60, "Make"),
+  model: optionalText(60, "Model"),
+  year: z.preprocess(
+    blankToUndefined,
+    z.coerce
+      .number({ error: "Model year: write a year, e.g. 2019." })
+      .int("Model year: write a year, e.g. 2019.")
+      .min(1980, "Model year: 1980 or later.")
+      .max(2040, "Model year: 2040 or earlier.")
+      .optional(),
+  ),
   odometer: z.preprocess(
-    (v) => (typeof v === "string" ? blankToUndefined(v.replace(/[\s,]/g, "")) : v),
+    // "61,250" and "61 250" read as 61250 (lib/form-number.ts); "61,25" is refused, not misread.
+    (v) =>
+      typeof v === "string" && v.trim() !== "" ? (parseFormNumber(v) ?? v) : blankToUndefined(v),
     z.coerce
       .number({ error: "Odometer: write a number, e.g. 61250." })
       .min(0, "Odometer: not below 0.")
@@ -51,6 +66,19 @@ export const LookupQuery = z.object({
   ),
 });
 export type LookupQuery = z.output<typeof LookupQuery>;
+
+/**
+ * The make, model and model year to look a vehicle not on file up by: the year typed in, else
+ * the one its VIN codes (49 CFR 565, when that is unambiguous). Null unless all three are known.
+ */
+export function walkInOf(
+  q: Pick<LookupQuery, "make" | "model" | "year">,
+  vinModelYear: number | null | undefined,
+): { make: string; model: string; year: number; isYearFromVin: boolean } | null {
+  const year = q.year ?? vinModelYear ?? null;
+  if (!q.make || !q.model || year === null) return null;
+  return { make: q.make, model: q.model, year, isYearFromVin: q.year === undefined };
+}
 
 /** The codes typed in, each decoded (SAE J2012), and the tokens that are not codes. */
 export function readCodes(raw: string | undefined): { codes: DtcInfo[]; invalid: string[] } {

@@ -71,7 +71,8 @@ async function settingsOf(db: Db, scope: OrgScope) {
 }
 
 export type LookupVehicle = {
-  id: number;
+  /** Null for a vehicle not on file, looked up by make, model and model year (walkInVehicle). */
+  id: number | null;
   vin: string | null;
   unitNumber: string | null;
   make: string;
@@ -117,6 +118,51 @@ export async function findLookupVehicle(
     generation: r.generation === null ? null : String(r.generation),
     lastOdometerMi: num(r.last_odometer_mi),
     lastOdometerOn: r.last_odometer_on === null ? null : String(r.last_odometer_on),
+  };
+}
+
+/**
+ * A vehicle not on file, described by make, model and model year (a walk-in at a shop): the
+ * make and model as the organisation's records spell them (compared without case, the most
+ * common spelling first), and the generation of the organisation's catalogue that covers the
+ * year, as an import would give it. Null when neither the vehicles nor the catalogue know the
+ * make and model: there is no cohort to count.
+ */
+export async function walkInVehicle(
+  db: Db,
+  scope: OrgScope,
+  by: { make: string; model: string; year: number; vin?: string },
+): Promise<LookupVehicle | null> {
+  assertCan(scope, "lookup:use");
+  const org = scope.organisationId;
+  const make = by.make.trim();
+  const model = by.model.trim();
+  const [named] = await db.all<{ make: string; model: string }>(sql`
+    select make, model from (
+      select make, model, count(*) as n from vehicles
+       where organisation_id = ${org} and make = ${make} collate nocase and model = ${model} collate nocase
+       group by make, model
+      union all
+      select make, model, 0 as n from generations
+       where organisation_id = ${org} and make = ${make} collate nocase and model = ${model} collate nocase)
+     order by n desc limit 1`);
+  if (!named) return null;
+  const [generation] = await db.all<{ id: number; label: string }>(sql`
+    select id, label from generations
+     where organisation_id = ${org} and make = ${named.make} collate nocase
+       and model = ${named.model} collate nocase and ${by.year} between year_from and year_to
+     order by year_from desc limit 1`);
+  return {
+    id: null,
+    vin: by.vin ? normaliseVin(by.vin) : null,
+    unitNumber: null,
+    make: String(named.make),
+    model: String(named.model),
+    modelYear: by.year,
+    generationId: generation ? Number(generation.id) : null,
+    generation: generation ? String(generation.label) : null,
+    lastOdometerMi: null,
+    lastOdometerOn: null,
   };
 }
 
@@ -167,6 +213,8 @@ export type CauseResult = {
 export type LookupRequest = {
   vin?: string;
   unit?: string;
+  /** A vehicle not on file: looked up by its cohort when the VIN and unit number find none. */
+  walkIn?: { make: string; model: string; year: number };
   /** In the organisation's distance unit. */
   odometer?: number;
   codes: string[];
@@ -192,9 +240,18 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
       )
     : [];
   const descriptions = Object.fromEntries(codeInfo.map((c) => [c.code, c.description]));
-  const vehicle = await findLookupVehicle(db, scope, { vin: req.vin, unit: req.unit });
+  const onFile = await findLookupVehicle(db, scope, { vin: req.vin, unit: req.unit });
+  const vehicle =
+    onFile ?? (req.walkIn ? await walkInVehicle(db, scope, { ...req.walkIn, vin: req.vin }) : null);
   const base = { settings, descriptions, vehicle };
-  if (!vehicle) return { ...base, found: false as const };
+  if (!vehicle) {
+    return {
+      ...base,
+      found: false as const,
+      // Why: a VIN or unit number that names no vehicle, or a make and model nobody has.
+      reason: req.walkIn && !onFile ? ("unknown-model" as const) : ("not-on-file" as const),
+    };
+  }
 
   const odometerMi =
     req.odometer !== undefined ? unitToMiles(req.odometer, settings.unit) : vehicle.lastOdometerMi;
@@ -399,6 +456,8 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
     ...base,
     found: true as const,
     vehicle,
+    /** Looked up by make, model and year: findings cannot be recorded on it. */
+    isWalkIn: vehicle.id === null,
     cohort: `${vehicle.make} ${vehicle.model} ${cohortLabel}`,
     odometerMi,
     isOdometerFromRecords,

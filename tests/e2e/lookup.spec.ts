@@ -110,6 +110,51 @@ test("a VIN that is not in the organisation is decoded and said plainly; a bad c
   await expect(page.getByLabel("Codes (DTCs)")).toHaveValue("P0496 X12");
 });
 
+test("a walk-in not on file is looked up by make, model and year; no finding forms, a way to add it", async ({
+  page,
+}) => {
+  const north = await orgId("northgate");
+  // A model year of the Kestrel K2 in Northgate's generation catalogue.
+  const [g] = await queryDb<{ year_from: number }>(
+    `select year_from from generations where organisation_id = ? and make = 'Aurel'
+        and model = 'Kestrel' and label = 'K2'`,
+    [north],
+  );
+  expect(g).toBeDefined();
+  await signIn(page, "technician");
+  await page.goto("/lookup");
+  await page.getByLabel("Make", { exact: true }).fill("aurel");
+  await page.getByLabel("Model", { exact: true }).fill("kestrel");
+  await page.getByLabel("Model year", { exact: true }).fill(String(g!.year_from));
+  await page.getByLabel("Odometer (mi)").fill("61,250");
+  await page.getByLabel("Codes (DTCs)").fill("P0496");
+  await page.getByRole("button", { name: "Look up" }).click();
+  await page.waitForURL(/\/lookup\?.*make=aurel/);
+
+  await expect(page.getByTestId("vehicle-found")).toContainText("Aurel Kestrel K2");
+  await expect(page.getByTestId("vehicle-found")).toContainText("not on file");
+  await expect(page.getByTestId("walk-in")).toContainText("ask a manager to add the vehicle");
+  const first = page.getByTestId("cause").first();
+  await expect(first.getByRole("heading", { level: 3 })).toContainText(
+    "Stalls just after refuelling: purge valve sticking open",
+  );
+  await expect(first.getByTestId("cautions")).toContainText("Fuel vapour");
+  // Findings belong to a vehicle's record: none can be recorded on a vehicle not on file.
+  await expect(page.getByRole("button", { name: "This was the cause" })).toHaveCount(0);
+  await expect(page.getByText("Something else was the cause")).toHaveCount(0);
+  await expect(page.getByRole("link", { name: "This vehicle's history →" })).toHaveCount(0);
+  await screenshot(page, "lookup-walk-in");
+
+  // A make and model nobody has is said plainly.
+  await page.goto("/lookup?make=Zephyrine&model=Quill&year=2020");
+  await expect(page.getByRole("alert").first()).toContainText("No Zephyrine Quill in Northgate");
+  // Half a cohort asks for the rest.
+  await page.goto("/lookup?make=Aurel");
+  await expect(page.getByRole("alert").first()).toContainText(
+    "enter its make, model and model year",
+  );
+});
+
 test("a viewer gets 403 on the lookup", async ({ page }) => {
   await signIn(page, "viewer");
   const res = await page.goto("/lookup");

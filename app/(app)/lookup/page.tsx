@@ -13,7 +13,7 @@ import { requirePage } from "@/lib/auth/guard";
 import { can } from "@/lib/auth/roles";
 import { formatBand, formatInterval, formatSig, ratePerTenThousand } from "@/lib/format";
 import { SYMPTOM_LABELS, STATE_LABELS } from "@/lib/known-issues";
-import { LookupQuery, RANKING_RULE, readCodes, readSymptom } from "@/lib/lookup";
+import { LookupQuery, RANKING_RULE, readCodes, readSymptom, walkInOf } from "@/lib/lookup";
 import { formatDistance } from "@/lib/units";
 import { checkVin, type VinCheck } from "@/lib/vin";
 import { queryValues, type PageSearchParams } from "@/lib/search-params";
@@ -52,18 +52,23 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
   }
   const symptom = readSymptom(q?.symptom, q?.words);
   const vinCheck = q?.vin ? checkVin(q.vin) : null;
-  const hasVehicle = Boolean(q?.vin || q?.unit);
+  // A vehicle not on file: make, model and the model year (typed, or coded in its VIN).
+  const walkIn = q ? walkInOf(q, vinCheck?.modelYear) : null;
+  const hasVehicle = Boolean(q?.vin || q?.unit || walkIn);
+  const isWalkInPartial = Boolean(q && !walkIn && (q.make || q.model || q.year !== undefined));
   const result =
     q && hasVehicle
       ? await getLookup(await getDb(), auth, {
           vin: q.vin,
           unit: q.unit,
+          walkIn: walkIn ?? undefined,
           odometer: q.odometer,
           codes: codes.codes.map((c) => c.code),
           symptom: symptom.symptom,
         })
       : null;
-  const canRecord = can(auth.role, "findings:record");
+  // Findings are part of a vehicle's record: a vehicle not on file has none to add them to.
+  const canRecord = can(auth.role, "findings:record") && !(result?.found && result.isWalkIn);
   const submitted = Object.keys(raw).length > 0;
 
   return (
@@ -146,6 +151,35 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
             ) : null}
           </label>
         </div>
+        <fieldset className="mt-4 border-t border-line pt-3">
+          <legend className="pr-2 text-sm font-medium text-ink">
+            Not on file? Look it up by its cohort
+          </legend>
+          <div className="grid gap-4 md:grid-cols-3">
+            <QueryField
+              name="make"
+              label="Make"
+              defaultValue={raw.make}
+              errors={errors.make}
+              autoComplete="off"
+            />
+            <QueryField
+              name="model"
+              label="Model"
+              defaultValue={raw.model}
+              errors={errors.model}
+              autoComplete="off"
+            />
+            <QueryField
+              name="year"
+              label="Model year"
+              hint="Blank: the year the VIN codes, if it does"
+              defaultValue={raw.year}
+              errors={errors.year}
+              inputMode="numeric"
+            />
+          </div>
+        </fieldset>
         <div className="mt-4 flex flex-wrap items-center gap-3">
           <button type="submit" className={buttonClass.primary}>
             Look up
@@ -166,7 +200,9 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
 
       {submitted && !hasVehicle && parsed.success ? (
         <p role="alert" className="mt-4 rounded-md bg-alarm-100 px-4 py-3 text-alarm-700">
-          Enter a VIN or a unit number to look a vehicle up.
+          {isWalkInPartial
+            ? "For a vehicle not on file, enter its make, model and model year (or a VIN that codes the year)."
+            : "Enter a VIN or a unit number to look a vehicle up, or the make, model and model year of one not on file."}
         </p>
       ) : null}
 
@@ -178,6 +214,8 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
             unitQuery={q?.unit}
             orgName={auth.organisation.name}
             canAddVehicle={can(auth.role, "vehicles:write")}
+            canRecordFindings={can(auth.role, "findings:record")}
+            walkIn={walkIn}
             codes={codes.codes}
             symptom={symptom}
             unit={unit}
@@ -188,7 +226,8 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
               unit={unit}
               canRecord={canRecord}
               context={{
-                vehicleId: result.vehicle.id,
+                // A vehicle not on file gets no finding forms (canRecord is false).
+                vehicleId: result.vehicle.id ?? 0,
                 odometer: q?.odometer,
                 dtcCodes: codes.codes.map((c) => c.code).join(" "),
                 symptom: symptom.symptom ?? undefined,
@@ -291,6 +330,8 @@ function VehiclePanel({
   unitQuery,
   orgName,
   canAddVehicle,
+  canRecordFindings,
+  walkIn,
   codes,
   symptom,
   unit,
@@ -300,6 +341,8 @@ function VehiclePanel({
   unitQuery?: string;
   orgName: string;
   canAddVehicle: boolean;
+  canRecordFindings: boolean;
+  walkIn: ReturnType<typeof walkInOf>;
   codes: ReturnType<typeof readCodes>["codes"];
   symptom: ReturnType<typeof readSymptom>;
   unit: "mi" | "km";
@@ -316,7 +359,36 @@ function VehiclePanel({
                 {v.unitNumber ? (
                   <span className="ml-2 font-normal">unit {v.unitNumber}</span>
                 ) : null}
+                {result.isWalkIn ? (
+                  <span className="ml-2 rounded bg-ochre-100 px-1.5 py-0.5 text-sm font-normal text-ochre-700">
+                    not on file
+                  </span>
+                ) : null}
               </p>
+              {result.isWalkIn ? (
+                <p className="text-sm" data-testid="walk-in">
+                  Not in {orgName}&apos;s records
+                  {vinCheck ? ` (no vehicle with VIN ${vinCheck.vin})` : ""}: looked up by make,
+                  model and model year
+                  {walkIn?.isYearFromVin ? " (the model year its VIN codes)" : ""}, against the
+                  records of the organisation&apos;s vehicles of the same cohort. No history of its
+                  own is counted
+                  {canRecordFindings
+                    ? ", and findings can be recorded only on a vehicle on file"
+                    : ""}
+                  {canRecordFindings ? (
+                    canAddVehicle ? (
+                      <>
+                        {" "}
+                        (<Link href="/vehicles">add the vehicle</Link>)
+                      </>
+                    ) : (
+                      " (ask a manager to add the vehicle)"
+                    )
+                  ) : null}
+                  .
+                </p>
+              ) : null}
               <p className="text-sm">
                 Cohort <strong>{result.cohort}</strong>
                 {result.odometerMi !== null ? (
@@ -347,21 +419,29 @@ function VehiclePanel({
                   The VIN codes model year {vinCheck.modelYear}; the record says {v.modelYear}.
                 </p>
               ) : null}
-              <p className="no-print mt-1 text-sm">
-                <Link href={`/vehicles/${v.id}`}>This vehicle&apos;s history →</Link>
-              </p>
+              {v.id !== null ? (
+                <p className="no-print mt-1 text-sm">
+                  <Link href={`/vehicles/${v.id}`}>This vehicle&apos;s history →</Link>
+                </p>
+              ) : null}
             </div>
+          ) : result && !result.found && result.reason === "unknown-model" ? (
+            <p role="alert" className="rounded-md bg-alarm-100 px-3 py-2 text-alarm-700">
+              No {walkIn?.make} {walkIn?.model} in {orgName}&apos;s vehicles or generation
+              catalogue: there is no cohort to count. Check the spelling of the make and model.
+            </p>
           ) : (
             <p role="alert" className="rounded-md bg-alarm-100 px-3 py-2 text-alarm-700">
               No vehicle with {vinCheck ? `VIN ${vinCheck.vin}` : `unit number ${unitQuery ?? ""}`}
               {vinCheck && unitQuery ? ` or unit number ${unitQuery}` : ""} in {orgName}. Check the
-              characters, or{" "}
+              characters, enter its make, model and model year under &ldquo;Not on file?&rdquo; to
+              look it up by its cohort, or{" "}
               {canAddVehicle ? (
                 <Link href="/vehicles">add the vehicle</Link>
               ) : (
                 "ask a manager to add the vehicle"
-              )}{" "}
-              first; nothing can be ranked without its cohort.
+              )}
+              .
             </p>
           )}
           {vinCheck ? <VinFacts check={vinCheck} /> : null}

@@ -127,6 +127,111 @@ describe("the lookup on the demo", () => {
     expect(own.found).toBe(true);
   });
 
+  test("a vehicle not on file, by make, model and year, gets its cohort's ranking", async () => {
+    const [k] = await db.all<{ model_year: number }>(
+      sql`select model_year from vehicles where id = ${k2.id}`,
+    );
+    const onFile = await getLookup(db, scope.technician!, {
+      vin: k2.vin,
+      odometer: k2.odometer,
+      codes: ["P0496"],
+      symptom: null,
+    });
+    // The same cohort typed in other case, with a VIN that is nobody's (49 CFR 565 worked
+    // example, trade-facts.md) and the same odometer: the same cohort, band and causes.
+    const walkIn = await getLookup(db, scope.technician!, {
+      vin: "1M8GDM9AXKP042788",
+      walkIn: { make: "aurel", model: "KESTREL", year: Number(k!.model_year) },
+      odometer: k2.odometer,
+      codes: ["P0496"],
+      symptom: null,
+    });
+    expect(onFile.found && walkIn.found).toBe(true);
+    if (!onFile.found || !walkIn.found) return;
+    expect(walkIn.isWalkIn).toBe(true);
+    expect(onFile.isWalkIn).toBe(false);
+    expect(walkIn.vehicle.id).toBeNull();
+    expect(walkIn.vehicle.vin).toBe("1M8GDM9AXKP042788");
+    expect(walkIn.cohort).toBe("Aurel Kestrel K2");
+    expect(walkIn.band).toEqual(onFile.band);
+    expect(walkIn.matchedLines).toBe(onFile.matchedLines);
+    const summary = (r: typeof walkIn) =>
+      r.causes.map((c) => [c.key, c.share.successes, c.share.trials]);
+    expect(summary(walkIn)).toEqual(summary(onFile));
+    expect(walkIn.causes[0]?.knownIssue?.id).toBe(purgeId);
+    // With no odometer there is no reading on record to fall back on: no band.
+    const noOdometer = await getLookup(db, scope.technician!, {
+      walkIn: { make: "Aurel", model: "Kestrel", year: Number(k!.model_year) },
+      codes: [],
+      symptom: null,
+    });
+    expect(noOdometer.found && noOdometer.band).toBeNull();
+  });
+
+  test("a make and model nobody has is said so; a year no generation covers counts by year", async () => {
+    const unknown = await getLookup(db, scope.technician!, {
+      walkIn: { make: "Zephyrine", model: "Quill", year: 2020 },
+      codes: [],
+      symptom: null,
+    });
+    expect(unknown.found).toBe(false);
+    expect(!unknown.found && unknown.reason).toBe("unknown-model");
+    // A VIN that names nobody, without make and model, is "not on file" as before.
+    const notOnFile = await getLookup(db, scope.technician!, {
+      vin: "1M8GDM9AXKP042788",
+      codes: [],
+      symptom: null,
+    });
+    expect(!notOnFile.found && notOnFile.reason).toBe("not-on-file");
+    const outside = await getLookup(db, scope.technician!, {
+      walkIn: { make: "AUREL", model: "kestrel", year: 1981 },
+      codes: [],
+      symptom: null,
+    });
+    expect(outside.found).toBe(true);
+    if (!outside.found) return;
+    expect(outside.vehicle).toMatchObject({ make: "Aurel", model: "Kestrel", generation: null });
+    expect(outside.cohort).toBe("Aurel Kestrel 1981");
+    expect(outside.matchedLines).toBe(0);
+  });
+
+  test("a walk-in counts only the organisation's own records", async () => {
+    const [k] = await db.all<{ model_year: number }>(
+      sql`select model_year from vehicles where id = ${k2.id}`,
+    );
+    const walkIn = { make: "Aurel", model: "Kestrel", year: Number(k!.model_year) };
+    const [north, tide] = await Promise.all(
+      [scope.technician!, scope.tidewater!].map((s) =>
+        getLookup(db, s, { walkIn, codes: [], symptom: null }),
+      ),
+    );
+    expect(north!.found && tide!.found).toBe(true);
+    if (!north!.found || !tide!.found) return;
+    // No odometer: no band, so every repair line of the cohort counts. An independent count
+    // per organisation, over its own vehicles of that cohort (generation, else model year).
+    const cohortLines = async (org: number, generationId: number | null) => {
+      const [n] = await db.all<{ n: number }>(sql`
+        select count(*) as n from repair_lines l join vehicles v on v.id = l.vehicle_id
+         where l.organisation_id = ${org} and v.organisation_id = ${org}
+           and v.make = 'Aurel' and v.model = 'Kestrel'
+           and ${generationId === null ? sql`v.generation_id is null and v.model_year = ${walkIn.year}` : sql`v.generation_id = ${generationId}`}`);
+      return Number(n!.n);
+    };
+    const northCount = await cohortLines(
+      scope.technician!.organisationId,
+      north!.vehicle.generationId,
+    );
+    const tideCount = await cohortLines(
+      scope.tidewater!.organisationId,
+      tide!.vehicle.generationId,
+    );
+    expect(north!.band).toBeNull();
+    expect(north!.matchedLines).toBe(northCount);
+    expect(tide!.matchedLines).toBe(tideCount);
+    expect(northCount).toBeGreaterThan(0);
+    expect(tideCount).not.toBe(northCount);
+  });
+
   test("a viewer may not look up", async () => {
     await expect(
       getLookup(db, scope.viewer!, { vin: k2.vin, codes: [], symptom: null }),

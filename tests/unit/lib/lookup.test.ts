@@ -7,6 +7,7 @@ import {
   fixSuccess,
   isFixOf,
   LookupQuery,
+  walkInOf,
   rankCauses,
   readCodes,
   readSymptom,
@@ -50,6 +51,24 @@ describe("the query", () => {
     const paths = r.error!.issues.map((i) => i.path.join("."));
     expect(paths).toEqual(["odometer", "symptom"]);
     expect(r.error!.issues[0]!.message).toMatch(/Odometer/);
+    // A decimal comma is refused, not read as 6125.
+    expect(LookupQuery.safeParse({ odometer: "612,5" }).success).toBe(false);
+  });
+  test("a vehicle not on file: make, model and year, the year from the VIN when blank", () => {
+    const q = LookupQuery.parse({ make: " Aurel ", model: "Kestrel", year: "2017" });
+    expect(walkInOf(q, undefined)).toEqual({
+      make: "Aurel",
+      model: "Kestrel",
+      year: 2017,
+      isYearFromVin: false,
+    });
+    expect(walkInOf(q, 1989)?.year).toBe(2017); // typed wins over the VIN's
+    const noYear = LookupQuery.parse({ make: "Aurel", model: "Kestrel" });
+    expect(walkInOf(noYear, 1989)).toMatchObject({ year: 1989, isYearFromVin: true });
+    expect(walkInOf(noYear, undefined)).toBeNull();
+    expect(walkInOf(LookupQuery.parse({ make: "Aurel", year: "2017" }), undefined)).toBeNull();
+    const bad = LookupQuery.safeParse({ year: "1890" });
+    expect(bad.error?.issues[0]?.message).toBe("Model year: 1980 or later.");
   });
   test("codes are decoded and invalid ones named (SAE J2012 via trade-facts.md)", () => {
     const { codes, invalid } = readCodes("p0496, P0A80 X1234 P0496 P1234");
