@@ -286,8 +286,20 @@ export const FindingForm = z
     complaint: text(1000).optional(),
     cause: text(2000).optional(),
     correction: text(2000).optional(),
+    /**
+     * A cause that is a component but no known issue (a computed pattern of the lookup): the
+     * finding's repair line is recorded as fixed at that component.
+     */
+    componentSlug: text(80).optional(),
   })
   .superRefine((f, ctx) => {
+    if (f.componentSlug && (f.outcome !== "something-else" || f.knownIssueId !== undefined)) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["componentSlug"],
+        message: "A component is named only for a cause that is not a known issue.",
+      });
+    }
     if (f.outcome !== "something-else" && f.knownIssueId === undefined) {
       ctx.addIssue({
         code: "custom",

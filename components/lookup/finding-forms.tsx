@@ -50,6 +50,48 @@ function Outcome({ state }: { state: ActionResult | null }) {
   );
 }
 
+/** One click per outcome for one cause of the lookup; `fields` says which cause it is. */
+function CauseFindingForm({
+  context,
+  title,
+  fields,
+  outcomes,
+}: {
+  context: FindingContext;
+  title: string;
+  fields: Record<string, string | number>;
+  outcomes: { value: string; label: string }[];
+}) {
+  const [state, formAction, isPending] = useActionState<ActionResult | null, FormData>(
+    recordFindingAction,
+    null,
+  );
+  return (
+    <form action={formAction} aria-label={`Record a finding: ${title}`} className="no-print mt-4">
+      <ContextFields context={context} />
+      {Object.entries(fields).map(([name, value]) => (
+        <input key={name} type="hidden" name={name} value={value} />
+      ))}
+      <div className="flex flex-wrap items-center gap-2">
+        <span className="text-sm font-medium">What did you find?</span>
+        {outcomes.map((o, i) => (
+          <button
+            key={o.value}
+            type="submit"
+            name="outcome"
+            value={o.value}
+            disabled={isPending || state?.ok === true}
+            className={i === 0 ? buttonClass.primary : buttonClass.secondary}
+          >
+            {o.label}
+          </button>
+        ))}
+      </div>
+      <Outcome state={state} />
+    </form>
+  );
+}
+
 /** "This was the cause" / "Not the cause" for one known issue: one click each. */
 export function KnownIssueFindingForm({
   context,
@@ -60,37 +102,45 @@ export function KnownIssueFindingForm({
   knownIssueId: number;
   title: string;
 }) {
-  const [state, formAction, isPending] = useActionState<ActionResult | null, FormData>(
-    recordFindingAction,
-    null,
-  );
   return (
-    <form action={formAction} aria-label={`Record a finding: ${title}`} className="no-print mt-4">
-      <ContextFields context={context} />
-      <input type="hidden" name="knownIssueId" value={knownIssueId} />
-      <div className="flex flex-wrap items-center gap-2">
-        <span className="text-sm font-medium">What did you find?</span>
-        <button
-          type="submit"
-          name="outcome"
-          value="confirmed"
-          disabled={isPending || state?.ok === true}
-          className={buttonClass.primary}
-        >
-          This was the cause
-        </button>
-        <button
-          type="submit"
-          name="outcome"
-          value="not-the-cause"
-          disabled={isPending || state?.ok === true}
-          className={buttonClass.secondary}
-        >
-          Not the cause
-        </button>
-      </div>
-      <Outcome state={state} />
-    </form>
+    <CauseFindingForm
+      context={context}
+      title={title}
+      fields={{ knownIssueId }}
+      outcomes={[
+        { value: "confirmed", label: "This was the cause" },
+        { value: "not-the-cause", label: "Not the cause" },
+      ]}
+    />
+  );
+}
+
+/**
+ * "This was the cause" for a computed pattern (a component, no known issue): the finding's
+ * repair line is recorded as fixed at that component, with the fix the records show.
+ */
+export function ComponentFindingForm({
+  context,
+  componentSlug,
+  title,
+  correction,
+}: {
+  context: FindingContext;
+  componentSlug: string;
+  title: string;
+  correction: string | null;
+}) {
+  return (
+    <CauseFindingForm
+      context={context}
+      title={title}
+      fields={{
+        componentSlug,
+        cause: title.slice(0, 2000),
+        ...(correction ? { correction: correction.slice(0, 2000) } : {}),
+      }}
+      outcomes={[{ value: "something-else", label: "This was the cause" }]}
+    />
   );
 }
 

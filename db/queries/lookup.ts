@@ -38,6 +38,7 @@ import { mileageBand } from "@/lib/stats";
 import { formatDistance, unitToMiles } from "@/lib/units";
 import { normaliseVin } from "@/lib/vin";
 import { recordAudit } from "./audit";
+import { componentIdOfSlug } from "./reference";
 import { queueEmail } from "./email";
 import { getKnownIssue, type KnownIssueDetail } from "./known-issues";
 import { assertCan, ConflictError, inOrg, NotFoundError, orgWhere, type OrgScope } from "./scope";
@@ -514,6 +515,9 @@ export async function recordFinding(db: Db, scope: OrgScope, input: FindingInput
     if (issue?.state === "retired") {
       throw new ConflictError("This known issue is retired; record the finding as something else.");
     }
+    // A component named as the cause (a computed pattern, not a known issue).
+    // (An unknown slug is refused: NotFoundError.)
+    const namedComponentId = await componentIdOfSlug(tx, input.componentSlug ?? null);
     const [org] = await tx.all<{ distance_unit: "mi" | "km" }>(
       sql`select distance_unit from organisations where id = ${scope.organisationId}`,
     );
@@ -579,7 +583,7 @@ export async function recordFinding(db: Db, scope: OrgScope, input: FindingInput
           cause,
           correction,
           dtcCodes: codes.join(" ") || null,
-          componentId: isConfirmed ? (issue?.componentId ?? null) : null,
+          componentId: isConfirmed ? (issue?.componentId ?? null) : namedComponentId,
           symptom: input.symptom ?? null,
           technician: actor?.name ?? null,
         }),
@@ -613,6 +617,7 @@ export async function recordFinding(db: Db, scope: OrgScope, input: FindingInput
       detail: {
         outcome: input.outcome,
         knownIssueId: issue?.id ?? null,
+        componentSlug: input.componentSlug ?? null,
         vehicleId: vehicle.id,
         roNumber,
         repairLineId: line.id,

@@ -93,6 +93,46 @@ test("technician: a Kestrel K2 with P0496 gets the purge valve first, prints one
   await expect(status).toContainText(String(finding?.ro_number));
 });
 
+test("technician: a computed pattern's 'This was the cause' records the line fixed at its component", async ({
+  page,
+}) => {
+  const north = await orgId("northgate");
+  // Another Kestrel K2 than the first test's (which records on the highest id).
+  const [v] = await queryDb<{ id: number; vin: string; last_odometer_mi: number }>(
+    `select v.id, v.vin, v.last_odometer_mi from vehicles v join generations g on g.id = v.generation_id
+      where v.organisation_id = ? and v.make = 'Aurel' and v.model = 'Kestrel' and g.label = 'K2'
+        and v.vin is not null and v.last_odometer_mi is not null
+      order by v.id limit 1`,
+    [north],
+  );
+  await signIn(page, "technician");
+  await page.goto(
+    `/lookup?vin=${v!.vin}&odometer=${Math.round(Number(v!.last_odometer_mi))}&dtc=P0496`,
+  );
+  const pattern = page
+    .getByTestId("cause")
+    .filter({ has: page.getByRole("heading", { level: 3, name: /^\d+\.\s*Pattern: / }) })
+    .first();
+  const heading = (await pattern.getByRole("heading", { level: 3 }).innerText()).trim();
+  const title = heading.replace(/^\d+\.\s*Pattern:\s*/, "");
+  await pattern.getByRole("button", { name: "This was the cause" }).click();
+  await expect(pattern.getByRole("status")).toContainText(
+    `Recorded: this was the cause (${title})`,
+  );
+  const [finding] = await queryDb<{
+    known_issue_id: number | null;
+    component: string;
+    cause: string;
+  }>(
+    `select f.known_issue_id, k.system || ' → ' || k.name as component, l.cause
+       from known_issue_findings f join repair_lines l on l.id = f.repair_line_id
+       join components k on k.id = l.component_id
+      where f.vehicle_id = ? order by f.id desc limit 1`,
+    [v!.id],
+  );
+  expect(finding).toEqual({ known_issue_id: null, component: title, cause: title });
+});
+
 test("a VIN that is not in the organisation is decoded and said plainly; a bad code is named", async ({
   page,
 }) => {

@@ -23,7 +23,7 @@ export async function recordFindingAction(
     if (input.knownIssueId !== undefined) revalidatePath(`/known-issues/${input.knownIssueId}`);
     return {
       ok: true,
-      message: `Recorded: ${OUTCOME_WORDS[input.outcome]}. Repair order ${result.roNumber} is now on the vehicle's record; the statistics will be recomputed shortly.${result.emailed > 0 ? ` ${result.emailed} watcher${result.emailed === 1 ? "" : "s"} will hear about it by e-mail.` : ""}`,
+      message: `Recorded: ${input.componentSlug ? `this was the cause (${input.cause ?? input.componentSlug})` : OUTCOME_WORDS[input.outcome]}. Repair order ${result.roNumber} is now on the vehicle's record; the statistics will be recomputed shortly.${result.emailed > 0 ? ` ${result.emailed} watcher${result.emailed === 1 ? "" : "s"} will hear about it by e-mail.` : ""}`,
     };
   });
 }

@@ -1,6 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { KnownIssueFindingForm, SomethingElseForm } from "@/components/lookup/finding-forms";
+import {
+  ComponentFindingForm,
+  KnownIssueFindingForm,
+  SomethingElseForm,
+} from "@/components/lookup/finding-forms";
 import { PrintButton } from "@/components/lookup/print-button";
 import { buttonClass, inputClass } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/page-header";
@@ -696,6 +700,13 @@ function CauseBlock({
       </div>
       {canRecord && c.knownIssue ? (
         <KnownIssueFindingForm context={context} knownIssueId={c.knownIssue.id} title={c.title} />
+      ) : canRecord && c.component ? (
+        <ComponentFindingForm
+          context={context}
+          componentSlug={c.component.slug}
+          title={c.title}
+          correction={c.fix.description}
+        />
       ) : null}
     </li>
   );

@@ -352,6 +352,66 @@ describe("recording a finding", () => {
     ).toMatch(/SAE J2012/);
   });
 
+  test("a computed pattern's component as the cause: the line is fixed at it, no known issue", async () => {
+    const r = await recordFinding(
+      db,
+      scope.technician!,
+      FindingForm.parse({
+        vehicleId: String(k2.id),
+        outcome: "something-else",
+        componentSlug: "fuel-vapour/filler-cap",
+        cause: "Fuel vapour → Filler cap and neck",
+        correction: "Replaced filler cap",
+        dtcCodes: "P0455",
+      }),
+    );
+    const [line] = await db.all<Record<string, unknown>>(sql`
+      select k.slug as component, l.cause, l.correction, f.known_issue_id, f.outcome
+        from repair_lines l left join components k on k.id = l.component_id
+        join known_issue_findings f on f.repair_line_id = l.id
+       where l.id = ${r.repairLineId}`);
+    expect(line).toEqual({
+      component: "fuel-vapour/filler-cap",
+      cause: "Fuel vapour → Filler cap and neck",
+      correction: "Replaced filler cap",
+      known_issue_id: null,
+      outcome: "something-else",
+    });
+    const [audit] = await db.all<{ detail: string }>(
+      sql`select detail from audit_log where entity = 'known_issue_finding' and entity_id = ${String(r.findingId)}`,
+    );
+    expect(JSON.parse(audit!.detail)).toMatchObject({ componentSlug: "fuel-vapour/filler-cap" });
+    // A component that does not exist is refused, and nothing is written.
+    const [before] = await db.all<{ n: number }>(
+      sql`select count(*) as n from known_issue_findings`,
+    );
+    await expect(
+      recordFinding(
+        db,
+        scope.technician!,
+        FindingForm.parse({
+          vehicleId: String(k2.id),
+          outcome: "something-else",
+          componentSlug: "no-such/part",
+          cause: "x",
+        }),
+      ),
+    ).rejects.toBeInstanceOf(NotFoundError);
+    const [after] = await db.all<{ n: number }>(
+      sql`select count(*) as n from known_issue_findings`,
+    );
+    expect(Number(after!.n)).toBe(Number(before!.n));
+    // A component goes only with a cause that is not a known issue.
+    expect(
+      FindingForm.safeParse({
+        vehicleId: "1",
+        outcome: "confirmed",
+        knownIssueId: "1",
+        componentSlug: "fuel-vapour/filler-cap",
+      }).error?.issues[0]?.path,
+    ).toEqual(["componentSlug"]);
+  });
+
   test("once the known issue is confirmed, a confirmed finding e-mails its watchers", async () => {
     await changeKnownIssueState(db, scope.shopManager!, {
       knownIssueId: purgeId,
