@@ -1,7 +1,27 @@
 import { median as ssMedian } from "simple-statistics";
+import { gammaSumInterval } from "@/lib/stats";
 
 /** The watch-list's default horizon: the next 10,000 of the organisation's unit (mi or km). */
 export const AT_RISK_HORIZON = 10_000;
+
+/** The miles a vehicle will drive in each mileage band over its next `nextMiles`. */
+export function milesByBand(
+  odometerMi: number,
+  nextMiles: number,
+  bandWidthMi: number,
+): [band: number, miles: number][] {
+  if (!(nextMiles > 0) || !(bandWidthMi > 0)) return [];
+  const out: [number, number][] = [];
+  let at = Math.max(0, odometerMi);
+  const end = at + nextMiles;
+  while (at < end) {
+    const band = Math.floor(at / bandWidthMi);
+    const to = Math.min(end, (band + 1) * bandWidthMi);
+    out.push([band, to - at]);
+    at = to;
+  }
+  return out;
+}
 
 /**
  * Expected failures of one fault over the next miles a vehicle drives: the cohort's rate per
@@ -14,17 +34,33 @@ export function expectedFailures(
   bandWidthMi: number,
   ratePerMileByBand: ReadonlyMap<number, number>,
 ): number {
-  if (!(nextMiles > 0) || !(bandWidthMi > 0)) return 0;
-  let total = 0;
-  let at = Math.max(0, odometerMi);
-  const end = at + nextMiles;
-  while (at < end) {
-    const band = Math.floor(at / bandWidthMi);
-    const to = Math.min(end, (band + 1) * bandWidthMi);
-    total += (ratePerMileByBand.get(band) ?? 0) * (to - at);
-    at = to;
-  }
-  return total;
+  return milesByBand(odometerMi, nextMiles, bandWidthMi).reduce(
+    (total, [band, miles]) => total + (ratePerMileByBand.get(band) ?? 0) * miles,
+    0,
+  );
+}
+
+/** A band's rate as its gamma posterior (cell_stats.posterior_shape / posterior_exposure_mi). */
+export type BandPosterior = { shape: number; exposureMi: number };
+
+/**
+ * The interval of expectedFailures when each band's rate is its gamma posterior (the shrunk
+ * rate is the posterior mean): the sum over bands of miles × rate, by gammaSumInterval. A band
+ * the vehicle drives through with no posterior counts as no failures, as in expectedFailures.
+ */
+export function expectedFailuresInterval(
+  odometerMi: number,
+  nextMiles: number,
+  bandWidthMi: number,
+  posteriorByBand: ReadonlyMap<number, BandPosterior>,
+  confidence: number,
+): { lower: number; upper: number } {
+  const terms = milesByBand(odometerMi, nextMiles, bandWidthMi).flatMap(([band, miles]) => {
+    const p = posteriorByBand.get(band);
+    return p ? [{ shape: p.shape, rate: p.exposureMi, weight: miles }] : [];
+  });
+  const { lower, upper } = gammaSumInterval(terms, confidence);
+  return { lower, upper };
 }
 
 /** The median of some numbers (0 for none); simple-statistics' median throws on none. */

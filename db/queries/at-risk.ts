@@ -1,7 +1,13 @@
 import "server-only";
 import { sql } from "drizzle-orm";
 import type { Db } from "@/db";
-import { expectedFailures, median } from "@/lib/at-risk";
+import {
+  expectedFailures,
+  expectedFailuresInterval,
+  median,
+  milesByBand,
+  type BandPosterior,
+} from "@/lib/at-risk";
 import { unitToMiles } from "@/lib/units";
 import { getKnownIssueEvidence } from "./known-issue-evidence";
 import { getKnownIssue, listKnownIssues } from "./known-issues";
@@ -23,23 +29,74 @@ export type AtRiskRow = {
   toRangeMi: number;
   /** Expected failures of this fault over the next `nextMiles`. */
   expected: number;
+  /**
+   * Its interval at the organisation's confidence level, from the bands' gamma posteriors
+   * (lib/at-risk.ts expectedFailuresInterval); null when the cells predate stored posteriors.
+   */
+  expectedLower: number | null;
+  expectedUpper: number | null;
   /** A proactive fix: parts + typical hours at the organisation's median labour rate. */
   fixCostCents: number | null;
 };
 
+/** One "make|model|label|faultKey": its rate per mile by band, and the rates' posteriors. */
+type CohortFaultRates = { rates: Map<number, number>; posteriors: Map<number, BandPosterior> };
+
 /** Rates per mile by band for each "make|model|label|faultKey", from the computed cells. */
 async function ratesByCohortFault(db: Db, scope: OrgScope) {
-  const rows = await db.all<{ k: string; band_index: number; rate: number | null }>(sql`
+  const rows = await db.all<{
+    k: string;
+    band_index: number;
+    rate: number | null;
+    shape: number | null;
+    exposure: number | null;
+  }>(sql`
     select make || '|' || model || '|' || cohort_label || '|' || fault_key as k, band_index,
-           coalesce(shrunk_rate_per_10k, rate_per_10k) as rate
+           coalesce(shrunk_rate_per_10k, rate_per_10k) as rate,
+           posterior_shape as shape, posterior_exposure_mi as exposure
       from cell_stats where organisation_id = ${scope.organisationId} and fault_key <> 'all'`);
-  const out = new Map<string, Map<number, number>>();
+  const out = new Map<string, CohortFaultRates>();
   for (const r of rows) {
-    const m = out.get(r.k) ?? new Map<number, number>();
-    m.set(Number(r.band_index), Number(r.rate ?? 0) / 10_000);
+    const m = out.get(r.k) ?? { rates: new Map(), posteriors: new Map() };
+    m.rates.set(Number(r.band_index), Number(r.rate ?? 0) / 10_000);
+    if (r.shape !== null && r.exposure !== null && r.shape > 0 && r.exposure > 0) {
+      m.posteriors.set(Number(r.band_index), {
+        shape: Number(r.shape),
+        exposureMi: Number(r.exposure),
+      });
+    }
     out.set(r.k, m);
   }
   return out;
+}
+
+const NO_RATES: CohortFaultRates = { rates: new Map(), posteriors: new Map() };
+
+/**
+ * The expected failures of a vehicle over the next miles and their interval at the
+ * organisation's confidence. No interval when a band the vehicle drives through has a rate but
+ * no posterior (cells computed before posteriors were stored): the next recompute gives one.
+ */
+function expectedWithInterval(
+  odometerMi: number,
+  nextMiles: number,
+  bandWidthMi: number,
+  cohortFault: CohortFaultRates,
+  confidence: number,
+): Pick<AtRiskRow, "expected" | "expectedLower" | "expectedUpper"> {
+  const expected = expectedFailures(odometerMi, nextMiles, bandWidthMi, cohortFault.rates);
+  const isComplete = milesByBand(odometerMi, nextMiles, bandWidthMi).every(
+    ([band]) => !(cohortFault.rates.get(band) ?? 0) || cohortFault.posteriors.has(band),
+  );
+  if (!isComplete) return { expected, expectedLower: null, expectedUpper: null };
+  const interval = expectedFailuresInterval(
+    odometerMi,
+    nextMiles,
+    bandWidthMi,
+    cohortFault.posteriors,
+    confidence,
+  );
+  return { expected, expectedLower: interval.lower, expectedUpper: interval.upper };
 }
 
 /**
@@ -49,10 +106,16 @@ async function ratesByCohortFault(db: Db, scope: OrgScope) {
  */
 export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMiles: number }) {
   assertCan(scope, "campaigns:manage");
-  const [org] = await db.all<{ band_width: number; distance_unit: "mi" | "km" }>(sql`
-    select band_width, distance_unit from organisations where id = ${scope.organisationId}`);
+  const [org] = await db.all<{
+    band_width: number;
+    distance_unit: "mi" | "km";
+    confidence_level: number;
+  }>(sql`
+    select band_width, distance_unit, confidence_level from organisations
+     where id = ${scope.organisationId}`);
   if (!org) throw new Error("getAtRiskVehicles: organisation missing");
   const bandWidthMi = unitToMiles(org.band_width, org.distance_unit);
+  const confidence = Number(org.confidence_level);
   const rates = await ratesByCohortFault(db, scope);
   // The organisation's labour rate: the median of labour cost per hour on its repair lines.
   const labour = await db.all<{ per_hour: number }>(sql`
@@ -88,7 +151,7 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
         ? null
         : (partsCents ?? 0) + (issue.typicalHours ?? 0) * labourPerHourCents;
     for (const v of evidence.atRisk) {
-      const byBand = rates.get(`${v.make}|${v.model}|${v.generation}|${faultKey}`) ?? new Map();
+      const byBand = rates.get(`${v.make}|${v.model}|${v.generation}|${faultKey}`) ?? NO_RATES;
       seen.add(`${v.id}|${faultKey}`);
       rows.push({
         vehicleId: v.id,
@@ -100,7 +163,13 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
         rangeFromMi: issue.mileageFromMi,
         rangeToMi: issue.mileageToMi,
         toRangeMi: v.toRangeMi,
-        expected: expectedFailures(v.lastOdometerMi ?? 0, opts.nextMiles, bandWidthMi, byBand),
+        ...expectedWithInterval(
+          v.lastOdometerMi ?? 0,
+          opts.nextMiles,
+          bandWidthMi,
+          byBand,
+          confidence,
+        ),
         fixCostCents: fixCostCents === null ? null : Math.round(fixCostCents),
       });
     }
@@ -149,7 +218,7 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
          and v.last_odometer_mi >= ${c.band_from_mi - bandWidthMi} and v.last_odometer_mi < ${c.band_to_mi}
          and not exists (select 1 from visible_repair_lines l where l.vehicle_id = v.id
                and l.odometer_mi >= ${c.band_from_mi} and l.odometer_mi < ${c.band_to_mi} and ${fixes("l")})`);
-    const byBand = rates.get(`${c.make}|${c.model}|${c.label}|${c.fault_key}`) ?? new Map();
+    const byBand = rates.get(`${c.make}|${c.model}|${c.label}|${c.fault_key}`) ?? NO_RATES;
     for (const r of vehiclesAtRisk) {
       if (seen.has(`${r.id}|${c.fault_key}`)) continue;
       seen.add(`${r.id}|${c.fault_key}`);
@@ -167,12 +236,23 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
         rangeFromMi: Number(c.band_from_mi),
         rangeToMi: Number(c.band_to_mi),
         toRangeMi: Math.max(0, Number(c.band_from_mi) - Number(r.odometer)),
-        expected: expectedFailures(Number(r.odometer), opts.nextMiles, bandWidthMi, byBand),
+        ...expectedWithInterval(
+          Number(r.odometer),
+          opts.nextMiles,
+          bandWidthMi,
+          byBand,
+          confidence,
+        ),
         fixCostCents:
           cost?.avg === null || cost?.avg === undefined ? null : Math.round(Number(cost.avg)),
       });
     }
   }
   rows.sort((a, b) => b.expected - a.expected || a.toRangeMi - b.toRangeMi);
-  return { rows, labourPerHourCents: Math.round(labourPerHourCents), bandWidthMi };
+  return {
+    rows,
+    labourPerHourCents: Math.round(labourPerHourCents),
+    bandWidthMi,
+    confidence,
+  };
 }

@@ -62,6 +62,13 @@ const cellColumns = () => ({
   pValue: real("p_value"),
   qValue: real("q_value"),
   shrunkRatePer10k: real("shrunk_rate_per_10k"),
+  /**
+   * The rate's gamma posterior (gammaPoissonShrinkage): shape = prior events + events, rate =
+   * prior exposure + exposure (miles); its mean is the shrunk rate per mile. Null when shrinkage
+   * did not run (no exposure).
+   */
+  posteriorShape: real("posterior_shape"),
+  posteriorExposureMi: real("posterior_exposure_mi"),
   isSignal: integer("is_signal", { mode: "boolean" }).notNull().default(false),
   hasTooLittleData: integer("has_too_little_data", { mode: "boolean" }).notNull().default(false),
 });

@@ -37,6 +37,9 @@ export type CellStat = {
   /** Benjamini–Hochberg adjusted p-value over every tested cell of the run. */
   qValue: number | null;
   shrunkRatePer10k: number | null;
+  /** The rate's gamma posterior: shape and rate (miles), null without shrinkage. */
+  posteriorShape: number | null;
+  posteriorExposureMi: number | null;
   isSignal: boolean;
   hasTooLittleData: boolean;
 };
@@ -130,6 +133,8 @@ export function computeCells(input: CellInput): CellStat[] {
           pValue: null,
           qValue: null,
           shrunkRatePer10k: null,
+          posteriorShape: null,
+          posteriorExposureMi: null,
           isSignal: false,
           hasTooLittleData,
         };
@@ -172,6 +177,9 @@ export function computeCells(input: CellInput): CellStat[] {
       withExposure.forEach((c, i) => {
         const s = shrunk.cells[i];
         if (s) c.shrunkRatePer10k = s.mean * PER;
+        // The posterior itself, for intervals on what the rate predicts (lib/at-risk.ts).
+        c.posteriorShape = shrunk.alpha + c.events;
+        c.posteriorExposureMi = shrunk.beta + c.exposureMi;
       });
     }
     cells.push(...faultCells);

@@ -46,6 +46,8 @@ export const CELL_COLUMNS = [
   "p_value",
   "q_value",
   "shrunk_rate_per_10k",
+  "posterior_shape",
+  "posterior_exposure_mi",
   "is_signal",
   "has_too_little_data",
 ] as const;
@@ -85,6 +87,8 @@ export function cellValues(org: number, runId: number, c: CellStat): SqlValue[] 
     c.pValue,
     c.qValue,
     c.shrunkRatePer10k,
+    c.posteriorShape,
+    c.posteriorExposureMi,
     c.isSignal,
     c.hasTooLittleData,
   ];

@@ -25,6 +25,7 @@ export {
   type OdometerEvent,
   type RefuelWindowResult,
 } from "./refuel-window-test";
+export { gammaSumInterval, type GammaTerm, type SumInterval } from "./gamma-sum-interval";
 export { poissonStockLevel } from "./poisson-stock-level";
 export { expectedShortfall } from "./expected-shortfall";
 export { mileageBand, type MileageBand } from "./mileage-band";

@@ -19,9 +19,17 @@ test("the fleet manager lists vehicles at risk, exports them, and works a campai
     .trim()
     .split("\r\n");
   expect(lines[0]).toBe(
-    "unit_number,vin,cohort,odometer_mi,why,range_from_mi,range_to_mi,miles_to_range,expected_failures,fix_cost",
+    "unit_number,vin,cohort,odometer_mi,why,range_from_mi,range_to_mi,miles_to_range,expected_failures,expected_low,expected_high,fix_cost",
   );
   expect(lines.length).toBeGreaterThan(1);
+  // Each expected count carries its interval, on the page and in the file (low ≤ expected ≤ high).
+  await expect(table.getByTestId("expected-interval").first()).toHaveText(/^[\d.,]+–[\d.,]+$/);
+  for (const line of lines.slice(1, 20)) {
+    const cells = line.split(",");
+    const [expected, low, high] = cells.slice(-4, -1).map(Number);
+    expect(low).toBeLessThanOrEqual(expected!);
+    expect(high).toBeGreaterThanOrEqual(expected!);
+  }
 
   // Nothing ticked: a clear message, nothing created.
   const form = page.getByRole("form", { name: "Add to a campaign list" });

@@ -9,7 +9,7 @@ import { getDb } from "@/db";
 import { getAtRiskVehicles } from "@/db/queries/at-risk";
 import { listCampaigns } from "@/db/queries/campaigns";
 import { requirePage } from "@/lib/auth/guard";
-import { formatMoney, formatSig } from "@/lib/format";
+import { formatInterval, formatMoney, formatSig } from "@/lib/format";
 import { formatDistance, unitToMiles } from "@/lib/units";
 import { queryValues, type PageSearchParams } from "@/lib/search-params";
 import { AT_RISK_HORIZON } from "@/lib/at-risk";
@@ -31,7 +31,7 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
   const unit = auth.organisation.distanceUnit;
   const { next } = Query.parse(await queryValues(searchParams));
   const db = await getDb();
-  const { rows, labourPerHourCents } = await getAtRiskVehicles(db, auth, {
+  const { rows, labourPerHourCents, confidence } = await getAtRiskVehicles(db, auth, {
     nextMiles: unitToMiles(next, unit),
   });
   const campaigns = await listCampaigns(db, auth);
@@ -58,7 +58,10 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
             {rows.length} vehicle–issue pairs; {formatSig(totalExpected, 3)} failures expected in
             all over the next {next.toLocaleString("en-GB")} {unit} each. Fix cost = parts + typical
             hours at this organisation&apos;s median labour rate ({formatMoney(labourPerHourCents)}
-            /h), or the average cost of past repairs of the fault for a signal.
+            /h), or the average cost of past repairs of the fault for a signal. The interval under
+            each expected count comes from the uncertainty of the cohort&apos;s rates (their gamma
+            posteriors, summed over the bands the vehicle drives through); it says nothing about how
+            far the vehicle will actually drive.
           </p>
         </form>
       </Panel>
@@ -84,7 +87,7 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
                       "Odometer",
                       "Why",
                       "Range starts in",
-                      "Expected failures",
+                      `Expected failures (${Math.round(confidence * 100)}% interval)`,
                       "Fix first",
                     ].map((h, i) => (
                       <th
@@ -132,6 +135,14 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
                         </td>
                         <td className="py-1 pr-3 text-right tabular-nums">
                           {formatSig(r.expected, 2)}
+                          {r.expectedLower !== null && r.expectedUpper !== null ? (
+                            <span
+                              className="block text-xs text-ink-soft"
+                              data-testid="expected-interval"
+                            >
+                              {formatInterval(r.expectedLower, r.expectedUpper)}
+                            </span>
+                          ) : null}
                         </td>
                         <td className="py-1 text-right tabular-nums">
                           {r.fixCostCents === null ? "—" : formatMoney(r.fixCostCents)}

@@ -40,6 +40,8 @@ export const GET = apiRoute("campaigns:manage", async (req, auth) => {
       "range_to_mi",
       "miles_to_range",
       "expected_failures",
+      "expected_low",
+      "expected_high",
       "fix_cost",
     ],
     rows.map((r) => [
@@ -52,6 +54,8 @@ export const GET = apiRoute("campaigns:manage", async (req, auth) => {
       r.rangeToMi === null ? null : Math.round(r.rangeToMi),
       Math.round(r.toRangeMi),
       Number(r.expected.toFixed(4)),
+      r.expectedLower === null ? null : Number(r.expectedLower.toFixed(4)),
+      r.expectedUpper === null ? null : Number(r.expectedUpper.toFixed(4)),
       r.fixCostCents === null ? null : (r.fixCostCents / 100).toFixed(2),
     ]),
     { withBom: true },

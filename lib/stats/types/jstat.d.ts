@@ -6,6 +6,7 @@ declare module "jstat" {
   interface ContinuousInverse {
     inv(p: number, ...parameters: number[]): number;
     cdf(x: number, ...parameters: number[]): number;
+    pdf(x: number, ...parameters: number[]): number;
   }
   interface Discrete {
     pdf(k: number, ...parameters: number[]): number;

@@ -12,7 +12,8 @@ import { ConflictError, ForbiddenError, NotFoundError, type OrgScope } from "@/d
 import { findOrganisationBySlug } from "@/db/queries/system";
 import { loadDemo } from "@/db/seed/demo";
 import { recomputeOrganisation } from "@/jobs/recompute/recompute";
-import { expectedFailures, median } from "@/lib/at-risk";
+import { expectedFailures, expectedFailuresInterval, median } from "@/lib/at-risk";
+import { jStat } from "../stats/support";
 import { createTestDb } from "../../support/test-db";
 
 describe("expectedFailures (piecewise-constant Poisson rate over bands)", () => {
@@ -28,6 +29,35 @@ describe("expectedFailures (piecewise-constant Poisson rate over bands)", () => 
     expect(expectedFailures(20_000, 10_000, 25_000, rates)).toBeCloseTo(2.5, 12);
     expect(expectedFailures(60_000, 10_000, 25_000, rates)).toBe(0);
     expect(expectedFailures(0, 0, 25_000, rates)).toBe(0);
+  });
+});
+
+describe("expectedFailuresInterval (the bands' gamma posteriors, summed)", () => {
+  test("inside one band it is miles × the posterior's quantiles; its mean is expectedFailures", () => {
+    // Posterior Gamma(shape 3, rate 20,000 mi): mean 1.5e-4 a mile; 10,000 mi → Gamma(3, scale
+    // 0.5), whose 2.5% and 97.5% points come from jstat (an independent reference library).
+    const posteriors = new Map([[0, { shape: 3, exposureMi: 20_000 }]]);
+    const r = expectedFailuresInterval(5_000, 10_000, 25_000, posteriors, 0.95);
+    expect(r.lower).toBeCloseTo(jStat.gamma.inv(0.025, 3, 0.5), 6);
+    expect(r.upper).toBeCloseTo(jStat.gamma.inv(0.975, 3, 0.5), 6);
+    expect(expectedFailures(5_000, 10_000, 25_000, new Map([[0, 3 / 20_000]]))).toBeCloseTo(
+      1.5,
+      12,
+    );
+  });
+  test("across a band edge both bands count; no posterior counts as no failures", () => {
+    const both = new Map([
+      [0, { shape: 3, exposureMi: 20_000 }],
+      [1, { shape: 8, exposureMi: 20_000 }],
+    ]);
+    const across = expectedFailuresInterval(20_000, 10_000, 25_000, both, 0.95);
+    const first = expectedFailuresInterval(20_000, 5_000, 25_000, both, 0.95);
+    expect(across.lower).toBeGreaterThan(first.lower);
+    expect(across.upper).toBeGreaterThan(first.upper);
+    expect(expectedFailuresInterval(60_000, 10_000, 25_000, both, 0.95)).toEqual({
+      lower: 0,
+      upper: 0,
+    });
   });
 });
 
@@ -58,6 +88,10 @@ describe("the at-risk watch-list and campaign lists on the demo", () => {
       expect(r.odometerMi).toBeGreaterThanOrEqual(75_000 - 25_000);
       expect(r.expected).toBeGreaterThan(0);
       expect(r.fixCostCents).not.toBeNull();
+      // The interval from the bands' posteriors holds the expected count.
+      expect(r.expectedLower).not.toBeNull();
+      expect(r.expectedLower!).toBeLessThan(r.expected);
+      expect(r.expectedUpper!).toBeGreaterThan(r.expected);
     }
     // Sorted by expected failures, most first.
     const expected = rows.map((r) => r.expected);
