@@ -29,12 +29,11 @@ export function milesByBand(
  * piecewise-constant rate of the cohort × band cells; a Poisson process, statistics.md §2).
  */
 export function expectedFailures(
-  odometerMi: number,
-  nextMiles: number,
-  bandWidthMi: number,
+  /** The miles ahead by band (milesByBand). */
+  miles: readonly (readonly [band: number, miles: number])[],
   ratePerMileByBand: ReadonlyMap<number, number>,
 ): number {
-  return milesByBand(odometerMi, nextMiles, bandWidthMi).reduce(
+  return miles.reduce(
     (total, [band, miles]) => total + (ratePerMileByBand.get(band) ?? 0) * miles,
     0,
   );
@@ -49,13 +48,12 @@ export type BandPosterior = { shape: number; exposureMi: number };
  * the vehicle drives through with no posterior counts as no failures, as in expectedFailures.
  */
 export function expectedFailuresInterval(
-  odometerMi: number,
-  nextMiles: number,
-  bandWidthMi: number,
+  /** The miles ahead by band (milesByBand). */
+  miles: readonly (readonly [band: number, miles: number])[],
   posteriorByBand: ReadonlyMap<number, BandPosterior>,
   confidence: number,
 ): { lower: number; upper: number } {
-  const terms = milesByBand(odometerMi, nextMiles, bandWidthMi).flatMap(([band, miles]) => {
+  const terms = miles.flatMap(([band, miles]) => {
     const p = posteriorByBand.get(band);
     return p ? [{ shape: p.shape, rate: p.exposureMi, weight: miles }] : [];
   });

@@ -84,18 +84,13 @@ function expectedWithInterval(
   cohortFault: CohortFaultRates,
   confidence: number,
 ): Pick<AtRiskRow, "expected" | "expectedLower" | "expectedUpper"> {
-  const expected = expectedFailures(odometerMi, nextMiles, bandWidthMi, cohortFault.rates);
-  const isComplete = milesByBand(odometerMi, nextMiles, bandWidthMi).every(
+  const miles = milesByBand(odometerMi, nextMiles, bandWidthMi);
+  const expected = expectedFailures(miles, cohortFault.rates);
+  const isComplete = miles.every(
     ([band]) => !(cohortFault.rates.get(band) ?? 0) || cohortFault.posteriors.has(band),
   );
   if (!isComplete) return { expected, expectedLower: null, expectedUpper: null };
-  const interval = expectedFailuresInterval(
-    odometerMi,
-    nextMiles,
-    bandWidthMi,
-    cohortFault.posteriors,
-    confidence,
-  );
+  const interval = expectedFailuresInterval(miles, cohortFault.posteriors, confidence);
   return { expected, expectedLower: interval.lower, expectedUpper: interval.upper };
 }
 

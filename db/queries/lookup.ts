@@ -457,8 +457,6 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
     ...base,
     found: true as const,
     vehicle,
-    /** Looked up by make, model and year: findings cannot be recorded on it. */
-    isWalkIn: vehicle.id === null,
     cohort: `${vehicle.make} ${vehicle.model} ${cohortLabel}`,
     odometerMi,
     isOdometerFromRecords,

@@ -1,3 +1,4 @@
+import diagnostics_channel from "node:diagnostics_channel";
 import { performance } from "node:perf_hooks";
 import { eq } from "drizzle-orm";
 import { localDatabasePath, type Db } from "@/db";
@@ -16,6 +17,21 @@ import { isDirectKind, readAndWrite } from "./direct";
 import { readAndStage, type ReadInput } from "./read";
 import { hasRunCancel, readRunCancel, removeRunFiles, writeRunProgress } from "./run-files";
 import { ImportWriter } from "./writer";
+
+/**
+ * How long each thread of a direct import was busy, published on IMPORT_THREADS_CHANNEL (Node's
+ * diagnostics_channel: nothing is built for nobody) after its commit; the import benchmark
+ * subscribes to it. writerBusyMs is by kind of work (table inserts, SQL, commit).
+ */
+export type ImportThreadsMessage = {
+  importId: number;
+  rows: number;
+  seconds: number;
+  readerBusyMs: number;
+  writerBusyMs: Record<string, number>;
+};
+export const IMPORT_THREADS_CHANNEL = "recurra:import-threads";
+const importThreadsChannel = diagnostics_channel.channel(IMPORT_THREADS_CHANNEL);
 
 export type RunImportHooks = {
   /** False once the job's lease was lost: stop writing at the next chunk. */
@@ -230,8 +246,16 @@ async function runInOneTransaction(
       return;
     }
     writer = null; // committed
+    const threads: ImportThreadsMessage = {
+      importId,
+      rows: result.rowsTotal,
+      seconds: (performance.now() - started) / 1000,
+      readerBusyMs: Math.round(performance.eventLoopUtilization(loopAtStart).active),
+      writerBusyMs: result.writerBusyMs,
+    };
+    importThreadsChannel.publish(threads);
     hooks.log?.(
-      `import ${importId}: read and wrote ${result.rowsTotal} rows in one transaction in ${((performance.now() - started) / 1000).toFixed(1)} s (reading thread busy ${Math.round(performance.eventLoopUtilization(loopAtStart).active)} ms; writer busy, ms: ${JSON.stringify(result.writerBusyMs)})`,
+      `import ${importId}: read and wrote ${threads.rows} rows in one transaction in ${threads.seconds.toFixed(1)} s (reading thread busy ${threads.readerBusyMs} ms; writer busy, ms: ${JSON.stringify(threads.writerBusyMs)})`,
     );
   } finally {
     await writer?.rollback();

@@ -3,6 +3,7 @@
  * one organisation, then the product's pipeline exactly as an upload takes it — store the file,
  * inspect it, start the import, let a worker run the job. Prints one JSON line.
  */
+import diagnostics_channel from "node:diagnostics_channel";
 import { createReadStream, readFileSync } from "node:fs";
 import { basename } from "node:path";
 import { parse } from "csv-parse";
@@ -13,6 +14,7 @@ import { createOrganisation } from "@/db/queries/system";
 import { loadReferenceData } from "@/db/seed/reference";
 import { importParseOptions, recordBatches } from "@/jobs/import/csv-stream";
 import { mappingByName } from "@/jobs/import/inspect";
+import { IMPORT_THREADS_CHANNEL, type ImportThreadsMessage } from "@/jobs/import/run-import";
 import { receiveUpload } from "@/jobs/import/upload";
 import { startWorker } from "@/jobs/worker";
 
@@ -57,20 +59,18 @@ const { jobId } = await startImport(db, scope, importId, {
   mapping: mappingByName(inspection.headers, inspection.mapping),
   read: inspection.read,
 });
-// The import's log line says how long each thread was busy (jobs/import/run-import.ts).
+// How long each thread was busy, as the import publishes it (jobs/import/run-import.ts).
 let busy: { readerMs: number; writerMs: number } | null = null;
+diagnostics_channel.subscribe(IMPORT_THREADS_CHANNEL, (message) => {
+  const m = message as ImportThreadsMessage;
+  const writerMs = Object.values(m.writerBusyMs).reduce((x, y) => x + y, 0);
+  busy = { readerMs: m.readerBusyMs, writerMs };
+});
 await startWorker({
   db,
   jobId,
   isOneShot: true,
-  log: (m) => {
-    process.stderr.write(`${m}\n`);
-    const found = /reading thread busy (\d+) ms; writer busy, ms: (\{[^}]*\})/.exec(m);
-    if (found) {
-      const writer = Object.values(JSON.parse(found[2] as string) as Record<string, number>);
-      busy = { readerMs: Number(found[1]), writerMs: writer.reduce((a, b) => a + b, 0) };
-    }
-  },
+  log: (m) => process.stderr.write(`${m}\n`),
 });
 const seconds = (performance.now() - started) / 1000;
 const result = await getImport(db, scope, importId);

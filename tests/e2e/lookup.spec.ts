@@ -6,24 +6,33 @@ function countPdfPages(pdf: Buffer): number {
   return pdf.toString("latin1").match(/\/Type\s*\/Page(?![s\w])/g)?.length ?? 0;
 }
 
-test("technician: a Kestrel K2 with P0496 gets the purge valve first, prints one page, records the cause", async ({
-  page,
-}) => {
+/**
+ * A Northgate Aurel Kestrel K2 of the demo with a VIN and an odometer reading: the one with the
+ * highest or lowest id, so that two tests recording findings use different vehicles.
+ */
+async function northgateKestrelK2(order: "asc" | "desc") {
   const north = await orgId("northgate");
-  // A Northgate Aurel Kestrel K2 from the demo (the planted purge-valve pattern's cohort).
   const [v] = await queryDb<{ id: number; vin: string; last_odometer_mi: number }>(
     `select v.id, v.vin, v.last_odometer_mi from vehicles v join generations g on g.id = v.generation_id
       where v.organisation_id = ? and v.make = 'Aurel' and v.model = 'Kestrel' and g.label = 'K2'
         and v.vin is not null and v.last_odometer_mi is not null
-      order by v.id desc limit 1`,
+      order by v.id ${order} limit 1`,
     [north],
   );
   expect(v).toBeDefined();
-  const odometer = String(Math.round(Number(v!.last_odometer_mi)));
+  return v!;
+}
+
+test("technician: a Kestrel K2 with P0496 gets the purge valve first, prints one page, records the cause", async ({
+  page,
+}) => {
+  // The planted purge-valve pattern's cohort; the highest id (the next test takes the lowest).
+  const v = await northgateKestrelK2("desc");
+  const odometer = String(Math.round(Number(v.last_odometer_mi)));
 
   await signIn(page, "technician");
   await page.goto("/lookup");
-  await page.getByLabel("VIN").fill(v!.vin);
+  await page.getByLabel("VIN").fill(v.vin);
   await page.getByLabel("Odometer (mi)").fill(odometer);
   await page.getByLabel("Codes (DTCs)").fill("P0496");
   await page.getByRole("button", { name: "Look up" }).click();
@@ -87,7 +96,7 @@ test("technician: a Kestrel K2 with P0496 gets the purge valve first, prints one
     `select f.outcome, o.ro_number from known_issue_findings f
        join repair_lines l on l.id = f.repair_line_id join repair_orders o on o.id = l.repair_order_id
       where f.vehicle_id = ? order by f.id desc limit 1`,
-    [v!.id],
+    [v.id],
   );
   expect(finding?.outcome).toBe("confirmed");
   await expect(status).toContainText(String(finding?.ro_number));
@@ -96,18 +105,11 @@ test("technician: a Kestrel K2 with P0496 gets the purge valve first, prints one
 test("technician: a computed pattern's 'This was the cause' records the line fixed at its component", async ({
   page,
 }) => {
-  const north = await orgId("northgate");
   // Another Kestrel K2 than the first test's (which records on the highest id).
-  const [v] = await queryDb<{ id: number; vin: string; last_odometer_mi: number }>(
-    `select v.id, v.vin, v.last_odometer_mi from vehicles v join generations g on g.id = v.generation_id
-      where v.organisation_id = ? and v.make = 'Aurel' and v.model = 'Kestrel' and g.label = 'K2'
-        and v.vin is not null and v.last_odometer_mi is not null
-      order by v.id limit 1`,
-    [north],
-  );
+  const v = await northgateKestrelK2("asc");
   await signIn(page, "technician");
   await page.goto(
-    `/lookup?vin=${v!.vin}&odometer=${Math.round(Number(v!.last_odometer_mi))}&dtc=P0496`,
+    `/lookup?vin=${v.vin}&odometer=${Math.round(Number(v.last_odometer_mi))}&dtc=P0496`,
   );
   const pattern = page
     .getByTestId("cause")
@@ -128,7 +130,7 @@ test("technician: a computed pattern's 'This was the cause' records the line fix
        from known_issue_findings f join repair_lines l on l.id = f.repair_line_id
        join components k on k.id = l.component_id
       where f.vehicle_id = ? order by f.id desc limit 1`,
-    [v!.id],
+    [v.id],
   );
   expect(finding).toEqual({ known_issue_id: null, component: title, cause: title });
 });

@@ -4,6 +4,7 @@ import {
   ComponentFindingForm,
   KnownIssueFindingForm,
   SomethingElseForm,
+  type FindingContext,
 } from "@/components/lookup/finding-forms";
 import { PrintButton } from "@/components/lookup/print-button";
 import { buttonClass, inputClass } from "@/components/ui/button";
@@ -32,6 +33,63 @@ const PRINT_CSS = `@media print {
   html { font-size: 10.5px; }
   main { max-width: none !important; padding: 0 !important; }
 }`;
+
+/** A text field of the lookup form: its query name, label, hint and input attributes. */
+type QueryFieldSpec = {
+  name: string;
+  label: string;
+  hint?: string;
+} & React.InputHTMLAttributes<HTMLInputElement>;
+
+const NO_AUTOFILL = { autoComplete: "off" } as const;
+const CODE_LIKE = { autoComplete: "off", spellCheck: false } as const;
+
+/** The vehicle, odometer, codes and words (the select of symptoms follows them). */
+const VEHICLE_FIELDS = (unit: "mi" | "km"): QueryFieldSpec[] => [
+  { name: "vin", label: "VIN", hint: "17 characters; check digit per 49 CFR 565", ...CODE_LIKE },
+  { name: "unit", label: "Unit number", hint: "When there is no VIN to hand", ...NO_AUTOFILL },
+  {
+    name: "odometer",
+    label: `Odometer (${unit})`,
+    hint: "Blank: the latest reading on record",
+    inputMode: "numeric",
+  },
+  {
+    name: "dtc",
+    label: "Codes (DTCs)",
+    hint: "Separated by spaces or commas, e.g. P0496 P0441",
+    ...CODE_LIKE,
+  },
+  { name: "words", label: "Symptom, in words", hint: "e.g. stalls just after filling up" },
+];
+
+/** A vehicle not on file, by its cohort. */
+const WALK_IN_FIELDS: QueryFieldSpec[] = [
+  { name: "make", label: "Make", ...NO_AUTOFILL },
+  { name: "model", label: "Model", ...NO_AUTOFILL },
+  {
+    name: "year",
+    label: "Model year",
+    hint: "Blank: the year the VIN codes, if it does",
+    inputMode: "numeric",
+  },
+];
+
+/** The fields, each with the value and errors of its name. */
+function queryFields(
+  specs: QueryFieldSpec[],
+  raw: Record<string, string | undefined>,
+  errors: Record<string, string[]>,
+) {
+  return specs.map((spec) => (
+    <QueryField
+      key={spec.name}
+      {...spec}
+      defaultValue={raw[spec.name]}
+      errors={errors[spec.name]}
+    />
+  ));
+}
 
 const pct = (x: number | null) => (x === null ? "—" : `${Math.round(x * 100)}%`);
 
@@ -71,8 +129,19 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
           symptom: symptom.symptom,
         })
       : null;
-  // Findings are part of a vehicle's record: a vehicle not on file has none to add them to.
-  const canRecord = can(auth.role, "findings:record") && !(result?.found && result.isWalkIn);
+  // Findings are part of a vehicle's record: a vehicle not on file has none to add them to, so
+  // it gets no finding forms.
+  const vehicleId = result?.found ? result.vehicle.id : null;
+  const recording =
+    vehicleId !== null && can(auth.role, "findings:record")
+      ? {
+          vehicleId,
+          odometer: q?.odometer,
+          dtcCodes: codes.codes.map((c) => c.code).join(" "),
+          symptom: symptom.symptom ?? undefined,
+          complaint: q?.words,
+        }
+      : null;
   const submitted = Object.keys(raw).length > 0;
 
   return (
@@ -91,47 +160,7 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
         className="no-print mb-4 rounded-lg border border-line bg-panel p-4"
       >
         <div className="grid gap-4 md:grid-cols-3">
-          <QueryField
-            name="vin"
-            label="VIN"
-            hint="17 characters; check digit per 49 CFR 565"
-            defaultValue={raw.vin}
-            errors={errors.vin}
-            autoComplete="off"
-            spellCheck={false}
-          />
-          <QueryField
-            name="unit"
-            label="Unit number"
-            hint="When there is no VIN to hand"
-            defaultValue={raw.unit}
-            errors={errors.unit}
-            autoComplete="off"
-          />
-          <QueryField
-            name="odometer"
-            label={`Odometer (${unit})`}
-            hint="Blank: the latest reading on record"
-            defaultValue={raw.odometer}
-            errors={errors.odometer}
-            inputMode="numeric"
-          />
-          <QueryField
-            name="dtc"
-            label="Codes (DTCs)"
-            hint="Separated by spaces or commas, e.g. P0496 P0441"
-            defaultValue={raw.dtc}
-            errors={errors.dtc}
-            autoComplete="off"
-            spellCheck={false}
-          />
-          <QueryField
-            name="words"
-            label="Symptom, in words"
-            hint="e.g. stalls just after filling up"
-            defaultValue={raw.words}
-            errors={errors.words}
-          />
+          {queryFields(VEHICLE_FIELDS(unit), raw, errors)}
           <label className="block text-sm">
             <span className="mb-1 block font-medium text-ink">Symptom (from the list)</span>
             <select
@@ -160,28 +189,7 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
             Not on file? Look it up by its cohort
           </legend>
           <div className="grid gap-4 md:grid-cols-3">
-            <QueryField
-              name="make"
-              label="Make"
-              defaultValue={raw.make}
-              errors={errors.make}
-              autoComplete="off"
-            />
-            <QueryField
-              name="model"
-              label="Model"
-              defaultValue={raw.model}
-              errors={errors.model}
-              autoComplete="off"
-            />
-            <QueryField
-              name="year"
-              label="Model year"
-              hint="Blank: the year the VIN codes, if it does"
-              defaultValue={raw.year}
-              errors={errors.year}
-              inputMode="numeric"
-            />
+            {queryFields(WALK_IN_FIELDS, raw, errors)}
           </div>
         </fieldset>
         <div className="mt-4 flex flex-wrap items-center gap-3">
@@ -228,15 +236,8 @@ export default async function LookupPage({ searchParams }: { searchParams: PageS
             <Causes
               result={result}
               unit={unit}
-              canRecord={canRecord}
-              context={{
-                // A vehicle not on file gets no finding forms (canRecord is false).
-                vehicleId: result.vehicle.id ?? 0,
-                odometer: q?.odometer,
-                dtcCodes: codes.codes.map((c) => c.code).join(" "),
-                symptom: symptom.symptom ?? undefined,
-                complaint: q?.words,
-              }}
+              isFiltered={codes.codes.length > 0 || Boolean(symptom.symptom)}
+              recording={recording}
             />
           ) : null}
         </div>
@@ -363,13 +364,13 @@ function VehiclePanel({
                 {v.unitNumber ? (
                   <span className="ml-2 font-normal">unit {v.unitNumber}</span>
                 ) : null}
-                {result.isWalkIn ? (
+                {v.id === null ? (
                   <span className="ml-2 rounded bg-ochre-100 px-1.5 py-0.5 text-sm font-normal text-ochre-700">
                     not on file
                   </span>
                 ) : null}
               </p>
-              {result.isWalkIn ? (
+              {v.id === null ? (
                 <p className="text-sm" data-testid="walk-in">
                   Not in {orgName}&apos;s records
                   {vinCheck ? ` (no vehicle with VIN ${vinCheck.vin})` : ""}: looked up by make,
@@ -505,13 +506,15 @@ function VehiclePanel({
 function Causes({
   result,
   unit,
-  canRecord,
-  context,
+  isFiltered,
+  recording,
 }: {
   result: Extract<LookupResult, { found: true }>;
   unit: "mi" | "km";
-  canRecord: boolean;
-  context: React.ComponentProps<typeof SomethingElseForm>["context"];
+  /** Whether the count is narrowed to the entered codes or symptom. */
+  isFiltered: boolean;
+  /** What a finding recorded here is about; null: no finding forms. */
+  recording: FindingContext | null;
 }) {
   const band = result.band ? formatBand(result.band.fromMi, result.band.toMi, unit) : null;
   return (
@@ -524,7 +527,7 @@ function Causes({
         Counted on {result.matchedLines} repair line{result.matchedLines === 1 ? "" : "s"} of{" "}
         {result.cohort}
         {result.isWidened ? " over the whole cohort (all mileages)" : band ? ` in ${band}` : ""}
-        {context.dtcCodes || context.symptom ? " that carry the entered codes or symptom" : ""}.
+        {isFiltered ? " that carry the entered codes or symptom" : ""}.
         {result.isWidened && result.band ? (
           <strong className="text-ochre-700">
             {" "}
@@ -546,16 +549,15 @@ function Causes({
               cause={c}
               rank={i + 1}
               unit={unit}
-              canRecord={canRecord}
-              context={context}
+              recording={recording}
               isPrinted={i < PRINTED_CAUSES}
             />
           ))}
         </ol>
       )}
-      {canRecord ? (
+      {recording ? (
         <Panel title="Something else was the cause" className="no-print mt-4">
-          <SomethingElseForm context={context} />
+          <SomethingElseForm context={recording} />
         </Panel>
       ) : null}
     </section>
@@ -566,15 +568,13 @@ function CauseBlock({
   cause: c,
   rank,
   unit,
-  canRecord,
-  context,
+  recording,
   isPrinted,
 }: {
   cause: CauseResult;
   rank: number;
   unit: "mi" | "km";
-  canRecord: boolean;
-  context: React.ComponentProps<typeof SomethingElseForm>["context"];
+  recording: FindingContext | null;
   isPrinted: boolean;
 }) {
   const s = c.share;
@@ -698,11 +698,11 @@ function CauseBlock({
           </p>
         )}
       </div>
-      {canRecord && c.knownIssue ? (
-        <KnownIssueFindingForm context={context} knownIssueId={c.knownIssue.id} title={c.title} />
-      ) : canRecord && c.component ? (
+      {recording && c.knownIssue ? (
+        <KnownIssueFindingForm context={recording} knownIssueId={c.knownIssue.id} title={c.title} />
+      ) : recording && c.component ? (
         <ComponentFindingForm
-          context={context}
+          context={recording}
           componentSlug={c.component.slug}
           title={c.title}
           correction={c.fix.description}

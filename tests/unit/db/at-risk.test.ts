@@ -12,9 +12,20 @@ import { ConflictError, ForbiddenError, NotFoundError, type OrgScope } from "@/d
 import { findOrganisationBySlug } from "@/db/queries/system";
 import { loadDemo } from "@/db/seed/demo";
 import { recomputeOrganisation } from "@/jobs/recompute/recompute";
-import { expectedFailures, expectedFailuresInterval, median } from "@/lib/at-risk";
+import { expectedFailures, expectedFailuresInterval, median, milesByBand } from "@/lib/at-risk";
 import { jStat } from "../stats/support";
 import { createTestDb } from "../../support/test-db";
+
+describe("milesByBand (the miles ahead split at band edges)", () => {
+  test("a stretch inside one band, across an edge, and none", () => {
+    expect(milesByBand(5_000, 10_000, 25_000)).toEqual([[0, 10_000]]);
+    expect(milesByBand(20_000, 10_000, 25_000)).toEqual([
+      [0, 5_000],
+      [1, 5_000],
+    ]);
+    expect(milesByBand(20_000, 0, 25_000)).toEqual([]);
+  });
+});
 
 describe("expectedFailures (piecewise-constant Poisson rate over bands)", () => {
   const rates = new Map([
@@ -22,13 +33,13 @@ describe("expectedFailures (piecewise-constant Poisson rate over bands)", () => 
     [1, 0.0004],
   ]);
   test("inside one band it is rate × miles", () => {
-    expect(expectedFailures(5_000, 10_000, 25_000, rates)).toBeCloseTo(1, 12);
+    expect(expectedFailures(milesByBand(5_000, 10_000, 25_000), rates)).toBeCloseTo(1, 12);
   });
   test("across a band edge each part uses its band's rate; past the cells it is 0", () => {
     // 20,000 → 25,000 at 0.0001 (0.5) + 25,000 → 30,000 at 0.0004 (2.0).
-    expect(expectedFailures(20_000, 10_000, 25_000, rates)).toBeCloseTo(2.5, 12);
-    expect(expectedFailures(60_000, 10_000, 25_000, rates)).toBe(0);
-    expect(expectedFailures(0, 0, 25_000, rates)).toBe(0);
+    expect(expectedFailures(milesByBand(20_000, 10_000, 25_000), rates)).toBeCloseTo(2.5, 12);
+    expect(expectedFailures(milesByBand(60_000, 10_000, 25_000), rates)).toBe(0);
+    expect(expectedFailures(milesByBand(0, 0, 25_000), rates)).toBe(0);
   });
 });
 
@@ -37,24 +48,23 @@ describe("expectedFailuresInterval (the bands' gamma posteriors, summed)", () =>
     // Posterior Gamma(shape 3, rate 20,000 mi): mean 1.5e-4 a mile; 10,000 mi → Gamma(3, scale
     // 0.5), whose 2.5% and 97.5% points come from jstat (an independent reference library).
     const posteriors = new Map([[0, { shape: 3, exposureMi: 20_000 }]]);
-    const r = expectedFailuresInterval(5_000, 10_000, 25_000, posteriors, 0.95);
+    const r = expectedFailuresInterval(milesByBand(5_000, 10_000, 25_000), posteriors, 0.95);
     expect(r.lower).toBeCloseTo(jStat.gamma.inv(0.025, 3, 0.5), 6);
     expect(r.upper).toBeCloseTo(jStat.gamma.inv(0.975, 3, 0.5), 6);
-    expect(expectedFailures(5_000, 10_000, 25_000, new Map([[0, 3 / 20_000]]))).toBeCloseTo(
-      1.5,
-      12,
-    );
+    expect(
+      expectedFailures(milesByBand(5_000, 10_000, 25_000), new Map([[0, 3 / 20_000]])),
+    ).toBeCloseTo(1.5, 12);
   });
   test("across a band edge both bands count; no posterior counts as no failures", () => {
     const both = new Map([
       [0, { shape: 3, exposureMi: 20_000 }],
       [1, { shape: 8, exposureMi: 20_000 }],
     ]);
-    const across = expectedFailuresInterval(20_000, 10_000, 25_000, both, 0.95);
-    const first = expectedFailuresInterval(20_000, 5_000, 25_000, both, 0.95);
+    const across = expectedFailuresInterval(milesByBand(20_000, 10_000, 25_000), both, 0.95);
+    const first = expectedFailuresInterval(milesByBand(20_000, 5_000, 25_000), both, 0.95);
     expect(across.lower).toBeGreaterThan(first.lower);
     expect(across.upper).toBeGreaterThan(first.upper);
-    expect(expectedFailuresInterval(60_000, 10_000, 25_000, both, 0.95)).toEqual({
+    expect(expectedFailuresInterval(milesByBand(60_000, 10_000, 25_000), both, 0.95)).toEqual({
       lower: 0,
       upper: 0,
     });

@@ -148,8 +148,8 @@ describe("the lookup on the demo", () => {
     });
     expect(onFile.found && walkIn.found).toBe(true);
     if (!onFile.found || !walkIn.found) return;
-    expect(walkIn.isWalkIn).toBe(true);
-    expect(onFile.isWalkIn).toBe(false);
+    expect(walkIn.vehicle.id).toBeNull();
+    expect(onFile.vehicle.id).not.toBeNull();
     expect(walkIn.vehicle.id).toBeNull();
     expect(walkIn.vehicle.vin).toBe("1M8GDM9AXKP042788");
     expect(walkIn.cohort).toBe("Aurel Kestrel K2");

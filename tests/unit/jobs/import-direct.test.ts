@@ -1,9 +1,11 @@
 import { beforeAll, describe, expect, test } from "vitest";
+import diagnostics_channel from "node:diagnostics_channel";
 import { join } from "node:path";
 import type { Db } from "@/db";
 import { cancelImport, getImport, startImport } from "@/db/queries/imports";
 import type { OrgScope } from "@/db/queries/scope";
 import { mappingByName } from "@/jobs/import/inspect";
+import { IMPORT_THREADS_CHANNEL, type ImportThreadsMessage } from "@/jobs/import/run-import";
 import { ImportWriter } from "@/jobs/import/writer";
 import { startWorker } from "@/jobs/worker";
 import { importText, rows, scratch, setUpOrganisation, upload } from "../../support/import-helpers";
@@ -83,6 +85,28 @@ describe.skipIf(isServerRun())("imports in one transaction on a local file", () 
     );
     const { existsSync } = await import("node:fs");
     expect(existsSync(`${imp[0]?.stored_path}.progress.json`)).toBe(false);
+  });
+
+  test("after its commit the import publishes how long each thread was busy", async () => {
+    const messages: ImportThreadsMessage[] = [];
+    const listen = (m: unknown) => messages.push(m as ImportThreadsMessage);
+    diagnostics_channel.subscribe(IMPORT_THREADS_CHANNEL, listen);
+    try {
+      const file = [HEADER, "T-1,U-1,2025-05-01,42000,Stalls after filling up,P0496,,,"].join("\n");
+      const { importId, result } = await importText(db, scope, "repairs", file);
+      expect(result.status).toBe("done");
+      expect(messages).toHaveLength(1);
+      const [m] = messages;
+      expect(m).toMatchObject({ importId, rows: 1 });
+      expect(m!.readerBusyMs).toBeGreaterThanOrEqual(0);
+      expect(m!.seconds).toBeGreaterThan(0);
+      // The writer's time by kind of work: the tables it inserted into and the commit.
+      expect(Object.keys(m!.writerBusyMs)).toEqual(
+        expect.arrayContaining(["repair_orders", "repair_lines", "commit"]),
+      );
+    } finally {
+      diagnostics_channel.unsubscribe(IMPORT_THREADS_CHANNEL, listen);
+    }
   });
 
   test("a file of several chunks lands whole: every order, line and code, in file order", async () => {
