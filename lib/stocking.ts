@@ -7,7 +7,7 @@
  * (common practice: A = the parts making the first 80% of the value, B the next 15%, C the rest;
  * Silver, Pyke & Peterson 1998, ch. 3).
  */
-import { expectedShortfall, poissonStockLevel } from "@/lib/stats";
+import { expectedShortfall, gammaSumInterval, poissonStockLevel } from "@/lib/stats";
 
 export type PlannerVehicle = {
   id: number;
@@ -17,8 +17,16 @@ export type PlannerVehicle = {
   milesPerDay: number;
 };
 
-/** Repairs per mile of one component in one cohort × band (point estimate and upper bound). */
-export type ComponentRate = { perMile: number; upperPerMile: number };
+/**
+ * Repairs per mile of one component in one cohort × band: point estimate, upper bound, and the
+ * rate's gamma posterior (shape, rate in miles) whose mean the point estimate is — absent for
+ * cells computed before posteriors were stored.
+ */
+export type ComponentRate = {
+  perMile: number;
+  upperPerMile: number;
+  posterior?: { shape: number; exposureMi: number };
+};
 
 /** How many of a part one repair of a component uses, for a cohort or for every cohort. */
 export type PartUse = { partNumber: string; perRepair: number };
@@ -50,12 +58,21 @@ export type PlannerInput = {
   overrideLeadDays?: number;
   /** Use the upper confidence bound of each rate (the cautious option). */
   cautious: boolean;
+  /** Level of the expected demand's interval (the organisation's confidence level). */
+  confidence: number;
 };
 
 export type PartPlan = StockedPart & {
   periodDays: number;
   /** Expected demand over lead time + review period. */
   expectedDemand: number;
+  /**
+   * Its interval at `confidence` from the uncertainty of the rates (their gamma posteriors,
+   * summed): null with the cautious option (the demand is then already an upper bound) or when
+   * a contributing cell has no posterior.
+   */
+  demandLower: number | null;
+  demandUpper: number | null;
   stockLevel: number;
   reorder: number;
   /** Expected units short per period with the stock on hand, and with the stock level. */
@@ -103,12 +120,15 @@ export function planStock(input: PlannerInput): PartPlan[] {
     const demand = dailyDemandFor(periodDays);
     const daily = demand.perDay.get(partNumber) ?? 0;
     const expectedDemand = daily * periodDays;
+    const interval = input.cautious ? null : demandInterval(demand, partNumber, periodDays, input);
     const stockLevel = poissonStockLevel(expectedDemand, input.serviceLevel);
     const annualDemand = daily * 365;
     return {
       ...part,
       periodDays,
       expectedDemand,
+      demandLower: interval?.lower ?? null,
+      demandUpper: interval?.upper ?? null,
       stockLevel,
       reorder: Math.max(0, stockLevel - part.onHand),
       shortfallOnHand: expectedShortfall(expectedDemand, part.onHand),
@@ -122,14 +142,41 @@ export function planStock(input: PlannerInput): PartPlan[] {
   return withAbcClasses(plans);
 }
 
+/**
+ * The interval of a part's expected demand over the period: each contributing cell's rate is
+ * its gamma posterior, weighted by the miles × parts per repair it was multiplied by; the
+ * weighted sum of independent gammas by gammaSumInterval (as lib/at-risk.ts does for one
+ * vehicle). Null when a contributing cell has no posterior; 0–0 for a part nobody needs.
+ */
+function demandInterval(
+  demand: ReturnType<typeof dailyDemand>,
+  partNumber: string,
+  periodDays: number,
+  input: PlannerInput,
+): { lower: number; upper: number } | null {
+  const weights = demand.weightsPerDay.get(partNumber);
+  if (!weights) return { lower: 0, upper: 0 };
+  const terms = [];
+  for (const [cellKey, perDay] of weights) {
+    const posterior = input.rates.get(cellKey)?.posterior;
+    if (!posterior) return null;
+    terms.push({ shape: posterior.shape, rate: posterior.exposureMi, weight: perDay * periodDays });
+  }
+  const { lower, upper } = gammaSumInterval(terms, input.confidence);
+  return { lower, upper };
+}
+
 /** Expected part uses per day across the vehicles, for a planning period of `periodDays`. */
 function dailyDemand(input: PlannerInput, periodDays: number) {
   const perDay = new Map<string, number>();
   const contributors = new Map<string, Set<number>>();
+  // Part → cell key → miles per day × parts per repair: what multiplies that cell's rate.
+  const weightsPerDay = new Map<string, Map<string, number>>();
   for (const v of input.vehicles) {
     const band = bandOf(v.odometerMi + (v.milesPerDay * periodDays) / 2, input.bandWidthMi);
     for (const slug of input.componentsByCohort.get(v.cohortKey) ?? []) {
-      const rate = input.rates.get(`${v.cohortKey}|${band}|${slug}`);
+      const cellKey = `${v.cohortKey}|${band}|${slug}`;
+      const rate = input.rates.get(cellKey);
       if (!rate) continue;
       const repairsPerDay = (input.cautious ? rate.upperPerMile : rate.perMile) * v.milesPerDay;
       if (!(repairsPerDay > 0)) continue;
@@ -143,10 +190,13 @@ function dailyDemand(input: PlannerInput, periodDays: number) {
         const set = contributors.get(use.partNumber) ?? new Set<number>();
         set.add(v.id);
         contributors.set(use.partNumber, set);
+        const weights = weightsPerDay.get(use.partNumber) ?? new Map<string, number>();
+        weights.set(cellKey, (weights.get(cellKey) ?? 0) + v.milesPerDay * use.perRepair);
+        weightsPerDay.set(use.partNumber, weights);
       }
     }
   }
-  return { perDay, contributors };
+  return { perDay, contributors, weightsPerDay };
 }
 
 /**

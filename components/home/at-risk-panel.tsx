@@ -6,7 +6,7 @@ import { Panel } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
 import { fetchJson } from "@/components/ui/fetch-json";
 import type { AtRiskRow } from "@/db/queries/at-risk";
-import { formatSig } from "@/lib/format";
+import { formatInterval, formatSig } from "@/lib/format";
 import { formatDistance } from "@/lib/units";
 import { AT_RISK_HORIZON } from "@/lib/at-risk";
 
@@ -20,7 +20,7 @@ export function AtRiskPanel({ unit }: { unit: "mi" | "km" }) {
   const query = useQuery({
     queryKey: ["home-at-risk"],
     queryFn: () =>
-      fetchJson<{ rows: AtRiskRow[]; total: number }>(
+      fetchJson<{ rows: AtRiskRow[]; total: number; confidence: number }>(
         `/api/at-risk?limit=${SHOWN}&next=${AT_RISK_HORIZON}`,
       ),
   });
@@ -45,7 +45,9 @@ export function AtRiskPanel({ unit }: { unit: "mi" | "km" }) {
           <p className="text-sm text-ink-soft">
             {query.data.total.toLocaleString("en-GB")} vehicles inside or near the mileage range of
             a confirmed known issue or a signal; the most expected failures over the next{" "}
-            {AT_RISK_HORIZON.toLocaleString("en-GB")} {unit} first.
+            {AT_RISK_HORIZON.toLocaleString("en-GB")} {unit} first (in brackets: the range at{" "}
+            {Math.round(query.data.confidence * 100)}% confidence, from the uncertainty of the
+            cohort&apos;s rates).
           </p>
           <ul className="mt-2 divide-y divide-line/60 text-sm" aria-label="Vehicles most at risk">
             {query.data.rows.map((r) => (
@@ -62,6 +64,12 @@ export function AtRiskPanel({ unit }: { unit: "mi" | "km" }) {
                 <span className="block text-ink-soft">
                   {r.source.kind === "known-issue" ? r.source.title : `Signal: ${r.source.label}`} ·{" "}
                   {formatSig(r.expected, 2)} expected
+                  {r.expectedLower !== null && r.expectedUpper !== null ? (
+                    <span data-testid="expected-interval">
+                      {" "}
+                      ({formatInterval(r.expectedLower, r.expectedUpper)})
+                    </span>
+                  ) : null}
                 </span>
               </li>
             ))}

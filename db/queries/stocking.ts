@@ -2,7 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { median } from "@/lib/at-risk";
 import type { Db } from "@/db";
-import { planStock, type PartUse, type PlannerVehicle } from "@/lib/stocking";
+import { planStock, type ComponentRate, type PartUse, type PlannerVehicle } from "@/lib/stocking";
 import { unitToMiles } from "@/lib/units";
 import { assertCan, type OrgScope } from "./scope";
 
@@ -33,9 +33,10 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
   const [org] = await db.all<{
     band_width: number;
     distance_unit: "mi" | "km";
+    confidence_level: number;
     as_of: string | null;
   }>(sql`
-    select o.band_width, o.distance_unit,
+    select o.band_width, o.distance_unit, o.confidence_level,
            (select max(last_odometer_on) from vehicles where organisation_id = ${scope.organisationId}) as as_of
       from organisations o where o.id = ${scope.organisationId}`);
   if (!org) throw new Error("getStockingPlan: organisation missing");
@@ -101,7 +102,8 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
       own.get(Number(r.id)) ?? (byCohort.has(r.cohort) ? median(byCohort.get(r.cohort)!) : overall),
   }));
 
-  // Component cells: the shrunk rate (steady for sparse cells) and the rate's upper bound.
+  // Component cells: the shrunk rate (steady for sparse cells), the rate's upper bound, and
+  // the gamma posterior the shrunk rate is the mean of.
   const cells = await db.all<{
     cohort: string;
     band_index: number;
@@ -109,18 +111,29 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
     shrunk: number | null;
     rate: number | null;
     upper: number | null;
+    shape: number | null;
+    exposure: number | null;
   }>(sql`
     select make || '|' || model || '|' || cohort_label as cohort, band_index,
-           substr(fault_key, 11) as slug, shrunk_rate_per_10k as shrunk, rate_per_10k as rate, rate_upper as upper
+           substr(fault_key, 11) as slug, shrunk_rate_per_10k as shrunk, rate_per_10k as rate, rate_upper as upper,
+           posterior_shape as shape, posterior_exposure_mi as exposure
       from cell_stats
      where organisation_id = ${scope.organisationId} and fault_key like 'component:%'`);
-  const rates = new Map<string, { perMile: number; upperPerMile: number }>();
+  const rates = new Map<string, ComponentRate>();
   const componentsByCohort = new Map<string, string[]>();
   for (const c of cells) {
     const point = c.shrunk ?? c.rate ?? 0;
     rates.set(`${c.cohort}|${c.band_index}|${c.slug}`, {
       perMile: point / 10_000,
       upperPerMile: Math.max(point, c.upper ?? point) / 10_000,
+      posterior:
+        c.shrunk !== null &&
+        c.shape !== null &&
+        c.exposure !== null &&
+        c.shape > 0 &&
+        c.exposure > 0
+          ? { shape: Number(c.shape), exposureMi: Number(c.exposure) }
+          : undefined,
     });
     const list = componentsByCohort.get(c.cohort) ?? [];
     if (!list.includes(c.slug)) list.push(c.slug);
@@ -194,6 +207,7 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
     defaultLeadDays: DEFAULT_LEAD_DAYS,
     overrideLeadDays: opts.leadDays,
     cautious: opts.cautious,
+    confidence: Number(org.confidence_level),
   });
   return {
     asOf,
@@ -201,6 +215,7 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
     vehiclesWithOwnMileage: own.size,
     defaultLeadDays: DEFAULT_LEAD_DAYS,
     options: opts,
+    confidence: Number(org.confidence_level),
     parts: plan,
   };
 }

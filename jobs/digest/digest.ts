@@ -5,6 +5,7 @@ import { getAtRiskVehicles } from "@/db/queries/at-risk";
 import { queueEmail } from "@/db/queries/email";
 import { findComebacks } from "@/lib/comebacks";
 import { getConfiguredBaseUrl } from "@/lib/env";
+import { formatInterval } from "@/lib/format";
 import { STATE_LABELS } from "@/lib/known-issues";
 import { unitToMiles } from "@/lib/units";
 import type { KnownIssueState } from "@/db/schema";
@@ -26,7 +27,15 @@ export type Digest = {
   newSignals: { label: string; band: string; events: number; ratioLower: number | null }[];
   stateChanges: { title: string; from: string; to: string; reason: string; at: string }[];
   comebacks: { fault: string; count: number }[];
-  atRisk: { vehicle: string; why: string; expected: number }[];
+  /** Expected failures over the horizon, with their range at `confidence` (null: none yet). */
+  atRisk: {
+    vehicle: string;
+    why: string;
+    expected: number;
+    expectedLower: number | null;
+    expectedUpper: number | null;
+  }[];
+  confidence: number;
 };
 
 const whole = (mi: number, unit: "mi" | "km") =>
@@ -112,7 +121,7 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
     .filter((c) => c.count > 0)
     .sort((a, b) => b.count - a.count)
     .slice(0, 5);
-  const { rows } = await getAtRiskVehicles(
+  const { rows, confidence } = await getAtRiskVehicles(
     db,
     { organisationId, userId: null, role: "admin" },
     { nextMiles: unitToMiles(AT_RISK_HORIZON, unit) },
@@ -141,7 +150,10 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
       vehicle: r.unitNumber ?? r.vin ?? `#${r.vehicleId}`,
       why: r.source.kind === "known-issue" ? r.source.title : `signal: ${r.source.label}`,
       expected: r.expected,
+      expectedLower: r.expectedLower,
+      expectedUpper: r.expectedUpper,
     })),
+    confidence,
   };
 }
 
@@ -174,7 +186,11 @@ export function renderDigest(d: Digest): { subject: string; text: string; html: 
       empty: "No vehicle is approaching a confirmed known issue or a signal.",
       items: d.atRisk.map(
         (a) =>
-          `${a.vehicle}: ${a.why} (${a.expected.toFixed(2)} failures expected in the next ${AT_RISK_HORIZON.toLocaleString("en-GB")} ${d.organisation.distanceUnit})`,
+          `${a.vehicle}: ${a.why} (${a.expected.toFixed(2)} failures expected in the next ${AT_RISK_HORIZON.toLocaleString("en-GB")} ${d.organisation.distanceUnit}${
+            a.expectedLower !== null && a.expectedUpper !== null
+              ? `; ${formatInterval(a.expectedLower, a.expectedUpper)} at ${Math.round(d.confidence * 100)}% confidence`
+              : ""
+          })`,
       ),
     },
   ];

@@ -76,8 +76,14 @@ test("home: a manager sees the vehicles most at risk; a technician the lookup; a
   expect(shown).toBeLessThanOrEqual(5);
   // The same first vehicles as the watch-list's JSON, most expected failures first.
   const api = (await (await page.request.get("/api/at-risk?limit=5")).json()) as {
-    rows: { vehicleId: number; expected: number }[];
+    rows: {
+      vehicleId: number;
+      expected: number;
+      expectedLower: number | null;
+      expectedUpper: number | null;
+    }[];
     total: number;
+    confidence: number;
   };
   expect(api.rows.length).toBe(shown);
   expect(api.total).toBeGreaterThanOrEqual(shown);
@@ -88,6 +94,13 @@ test("home: a manager sees the vehicles most at risk; a technician the lookup; a
     "href",
     `/vehicles/${api.rows[0]!.vehicleId}`,
   );
+  // Each with its range, in brackets, as the watch-list gives it; the level is said once.
+  const [top] = api.rows;
+  expect(top!.expectedLower).not.toBeNull();
+  await expect(list.getByRole("listitem").first().getByTestId("expected-interval")).toHaveText(
+    /^ \([\d.,]+–[\d.,]+\)$/,
+  );
+  await expect(page.getByText(`${Math.round(api.confidence * 100)}% confidence`)).toBeVisible();
   expect((await page.request.get("/api/at-risk?limit=0")).status()).toBe(400);
   await manager.close();
 

@@ -8,6 +8,15 @@ test("the shop owner plans stock and exports the purchase list", async ({ page }
   const reorderAt95 = Number(await page.getByTestId("stock-parts-to-reorder").textContent());
   expect(reorderAt95).toBeGreaterThan(0);
   await screenshot(page, "stocking");
+  // Each demand with its range from the rates' uncertainty, as the JSON gives it.
+  await expect(table.getByTestId("demand-interval").first()).toHaveText(/^[\d.,]+–[\d.,]+$/);
+  const json = (await (await page.request.get("/api/stocking")).json()) as {
+    parts: { expectedDemand: number; demandLower: number | null; demandUpper: number | null }[];
+  };
+  for (const p of json.parts.filter((x) => x.expectedDemand > 0)) {
+    expect(p.demandLower).toBeLessThanOrEqual(p.expectedDemand + 1e-9);
+    expect(p.demandUpper).toBeGreaterThanOrEqual(p.expectedDemand - 1e-9);
+  }
 
   // A higher service level and the cautious rates never ask for fewer parts.
   const form = page.getByRole("form", { name: "Plan settings" });
@@ -15,6 +24,8 @@ test("the shop owner plans stock and exports the purchase list", async ({ page }
   await form.getByLabel(/Cautious/).check();
   await form.getByRole("button", { name: "Plan" }).click();
   await expect(page).toHaveURL(/serviceLevel=0\.99.*cautious=1/);
+  // Cautious rates are already an upper end: no range under the demand.
+  await expect(table.getByTestId("demand-interval")).toHaveCount(0);
   const reorderAt99 = Number(await page.getByTestId("stock-parts-to-reorder").textContent());
   expect(reorderAt99).toBeGreaterThanOrEqual(reorderAt95);
 
@@ -28,7 +39,7 @@ test("the shop owner plans stock and exports the purchase list", async ({ page }
     .trim()
     .split("\r\n");
   expect(lines[0]).toBe(
-    "part_number,description,component,abc,expected_demand,period_days,stock_level,on_hand,reorder,unit_cost,reorder_value,expected_shortfall_on_hand",
+    "part_number,description,component,abc,expected_demand,demand_low,demand_high,period_days,stock_level,on_hand,reorder,unit_cost,reorder_value,expected_shortfall_on_hand",
   );
   expect(lines.length - 1).toBe(reorderAt99);
 

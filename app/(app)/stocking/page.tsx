@@ -6,7 +6,7 @@ import { Panel } from "@/components/ui/panel";
 import { getDb } from "@/db";
 import { getStockingPlan } from "@/db/queries/stocking";
 import { requirePage } from "@/lib/auth/guard";
-import { formatMoney, formatSig } from "@/lib/format";
+import { formatInterval, formatMoney, formatSig } from "@/lib/format";
 import { SERVICE_LEVELS, StockingQuery } from "@/lib/stocking-request";
 import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
 
@@ -86,7 +86,8 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
           </label>
           <label className="flex items-center gap-2 pb-2">
             <input type="checkbox" name="cautious" value="1" defaultChecked={q.cautious} />
-            Cautious: use each rate&apos;s upper 95% bound
+            Cautious: use the upper end of each rate&apos;s {Math.round(plan.confidence * 100)}%
+            interval
           </label>
           <label className="flex items-center gap-2 pb-2">
             <input type="checkbox" name="only" value="all" defaultChecked={q.only === "all"} />
@@ -135,9 +136,15 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
           <p className="text-ink-soft">
             Expected demand over each part&apos;s lead time + {q.reviewDays} review days, from the
             failure rate of its component for each vehicle&apos;s cohort and mileage band (
-            {q.cautious ? "upper 95% bound" : "shrunk estimate"}) × the vehicle&apos;s miles per
-            day. Stock level: the smallest stock that covers a Poisson demand with{" "}
-            {Math.round(q.serviceLevel * 100)}% probability. ABC by yearly demand value.
+            {q.cautious
+              ? `upper end of its ${Math.round(plan.confidence * 100)}% interval`
+              : "shrunk estimate"}
+            ) × the vehicle&apos;s miles per day. Stock level: the smallest stock that covers a
+            Poisson demand with {Math.round(q.serviceLevel * 100)}% probability. ABC by yearly
+            demand value.{" "}
+            {q.cautious
+              ? "No range under the demand: with the cautious option it is already an upper bound."
+              : `Under each demand, its range at ${Math.round(plan.confidence * 100)}% confidence from the uncertainty of the rates (their gamma posteriors); the stock level also covers the chance variation of the repairs themselves.`}
           </p>
           <a href={`/api/stocking?${query}&format=csv`} className={buttonClass.secondary}>
             Download purchase list (CSV)
@@ -193,6 +200,11 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
                       title={`over ${p.periodDays} days`}
                     >
                       {formatSig(p.expectedDemand, 3)}
+                      {p.demandLower !== null && p.demandUpper !== null ? (
+                        <span className="block text-xs text-ink-soft" data-testid="demand-interval">
+                          {formatInterval(p.demandLower, p.demandUpper)}
+                        </span>
+                      ) : null}
                     </td>
                     <td className="py-1 pr-3 text-right tabular-nums">{p.stockLevel}</td>
                     <td className="py-1 pr-3 text-right tabular-nums">{p.onHand}</td>

@@ -16,18 +16,23 @@ const Query = z.object({
 });
 
 /**
- * The at-risk watch-list (JSON: `{ rows, total }`), or as a spreadsheet-safe CSV. `next` is in
+ * The at-risk watch-list (JSON: `{ rows, total, confidence }`), or as a spreadsheet-safe CSV. `next` is in
  * the organisation's unit.
  */
 export const GET = apiRoute("campaigns:manage", async (req, auth) => {
   const q = Query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
   if (!q.success) return jsonError(400, "Invalid query parameters.", q.error.issues);
   const unit = auth.organisation.distanceUnit;
-  const { rows } = await getAtRiskVehicles(await getDb(), auth, {
+  const { rows, confidence } = await getAtRiskVehicles(await getDb(), auth, {
     nextMiles: unitToMiles(q.data.next, unit),
   });
   if (q.data.format === "json") {
-    return Response.json({ rows: rows.slice(0, q.data.limit ?? rows.length), total: rows.length });
+    return Response.json({
+      rows: rows.slice(0, q.data.limit ?? rows.length),
+      total: rows.length,
+      /** The level of each row's expectedLower–expectedUpper. */
+      confidence,
+    });
   }
   const body = toCsv(
     [

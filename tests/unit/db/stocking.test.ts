@@ -29,7 +29,14 @@ describe("the stocking plan of the demo shop", () => {
     for (const p of plan.parts) {
       expect(p.stockLevel).toBe(poissonStockLevel(p.expectedDemand, 0.95));
       expect(p.reorder).toBe(Math.max(0, p.stockLevel - p.onHand));
+      // The recompute stored every cell's posterior: each demand has its range, holding it.
+      expect(p.demandLower).not.toBeNull();
+      expect(p.demandLower!).toBeLessThanOrEqual(p.expectedDemand + 1e-9);
+      expect(p.demandUpper!).toBeGreaterThanOrEqual(p.expectedDemand - 1e-9);
     }
+    const needed = plan.parts.filter((p) => p.expectedDemand > 0);
+    expect(needed.length).toBeGreaterThan(0);
+    expect(needed.every((p) => p.demandUpper! > p.demandLower!)).toBe(true);
     // Oil service is the busiest job: its parts are class A.
     const oil = plan.parts.filter((p) => p.component === "Engine mechanical → Oil and filter");
     expect(oil.length).toBeGreaterThan(0);

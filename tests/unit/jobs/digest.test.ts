@@ -7,6 +7,7 @@ import { findOrganisationBySlug } from "@/db/queries/system";
 import { loadDemo } from "@/db/seed/demo";
 import { buildDigest, isoWeekKey, renderDigest, sendDigest } from "@/jobs/digest/digest";
 import { recomputeOrganisation } from "@/jobs/recompute/recompute";
+import { formatInterval } from "@/lib/format";
 import { createTestDb } from "../../support/test-db";
 
 describe("isoWeekKey (ISO 8601 week numbering)", () => {
@@ -54,7 +55,18 @@ describe("the weekly digest on the demo", () => {
       expect.objectContaining({ title: issue!.title, from: "Watching", to: "Confirmed" }),
     ]);
     expect(digest.atRisk.length).toBeGreaterThan(0);
+    // Each expected count with its range at the organisation's confidence (cells recomputed by
+    // the demo carry their posteriors), and the range holds the count.
+    for (const a of digest.atRisk) {
+      expect(a.expectedLower).not.toBeNull();
+      expect(a.expectedLower!).toBeLessThanOrEqual(a.expected);
+      expect(a.expectedUpper!).toBeGreaterThanOrEqual(a.expected);
+    }
     const mail = renderDigest(digest);
+    const first = digest.atRisk[0]!;
+    expect(mail.text).toContain(
+      `${formatInterval(first.expectedLower, first.expectedUpper)} at ${Math.round(digest.confidence * 100)}% confidence`,
+    );
     expect(mail.subject).toMatch(
       /^Recurra weekly digest: Tidewater Parcel Co-op — \d+ new signals?$/,
     );

@@ -1,5 +1,6 @@
 import { describe, expect, test } from "vitest";
 import { planStock, withAbcClasses, type PlannerInput } from "@/lib/stocking";
+import { jStat } from "../stats/support";
 
 const COHORT = "Aurel|Kestrel|K2";
 
@@ -28,6 +29,7 @@ function input(over: Partial<PlannerInput> = {}): PlannerInput {
     reviewDays: 14,
     defaultLeadDays: 7,
     cautious: false,
+    confidence: 0.95,
     ...over,
   };
 }
@@ -101,6 +103,54 @@ describe("planStock", () => {
     );
     expect(plan?.expectedDemand).toBe(0);
     expect(plan?.vehicles).toBe(0);
+  });
+});
+
+describe("the expected demand's interval (the rates' gamma posteriors)", () => {
+  // Band 0's rate as Gamma(shape 5, rate 5,000 mi): mean 0.001 a mile, the point rate above.
+  const posterior = { shape: 5, exposureMi: 5_000 };
+  const withPosterior = (vehicles: PlannerInput["vehicles"]) =>
+    input({
+      vehicles,
+      rates: new Map([
+        [`${COHORT}|0|brakes/front-pads`, { perMile: 0.001, upperPerMile: 0.002, posterior }],
+      ]),
+    });
+
+  test("one vehicle: demand = 2,500 mi × rate, so Gamma(5, scale 0.5); quantiles from jstat", () => {
+    // 50 mi/day × 50 days = 2,500 mi; 2,500 × Gamma(5, rate 5,000) = Gamma(5, scale 0.5).
+    // jstat (an independent reference library) gives its 2.5% and 97.5% points.
+    const [plan] = planStock(
+      withPosterior([{ id: 1, cohortKey: COHORT, odometerMi: 10_000, milesPerDay: 50 }]),
+    );
+    expect(plan!.expectedDemand).toBeCloseTo(2.5, 12);
+    expect(plan!.demandLower).toBeCloseTo(jStat.gamma.inv(0.025, 5, 0.5), 6);
+    expect(plan!.demandUpper).toBeCloseTo(jStat.gamma.inv(0.975, 5, 0.5), 6);
+  });
+
+  test("two vehicles of one cell share its rate: the miles add up, the interval is not narrowed", () => {
+    // One rate times 5,000 mi in all: Gamma(5, scale 1). Treating the two vehicles as
+    // independent draws would give Gamma(10, scale 0.5), a narrower interval.
+    const [plan] = planStock(
+      withPosterior([
+        { id: 1, cohortKey: COHORT, odometerMi: 10_000, milesPerDay: 50 },
+        { id: 2, cohortKey: COHORT, odometerMi: 12_000, milesPerDay: 50 },
+      ]),
+    );
+    expect(plan!.expectedDemand).toBeCloseTo(5, 12);
+    expect(plan!.demandLower).toBeCloseTo(jStat.gamma.inv(0.025, 5, 1), 6);
+    expect(plan!.demandUpper).toBeCloseTo(jStat.gamma.inv(0.975, 5, 1), 6);
+  });
+
+  test("no interval with the cautious option or a cell without its posterior; 0–0 for no demand", () => {
+    const one = [{ id: 1, cohortKey: COHORT, odometerMi: 10_000, milesPerDay: 50 }];
+    const [cautious] = planStock({ ...withPosterior(one), cautious: true });
+    expect([cautious!.demandLower, cautious!.demandUpper]).toEqual([null, null]);
+    // The default input's cells have no posterior.
+    const [old] = planStock(input());
+    expect([old!.demandLower, old!.demandUpper]).toEqual([null, null]);
+    const [idle] = planStock(withPosterior([{ ...one[0]!, milesPerDay: 0 }]));
+    expect([idle!.expectedDemand, idle!.demandLower, idle!.demandUpper]).toEqual([0, 0, 0]);
   });
 });
 
