@@ -5,20 +5,8 @@ import { useState } from "react";
 import { changeStateAction, commentAction, watchAction } from "@/app/(app)/known-issues/actions";
 import { buttonClass, inputClass } from "@/components/ui/button";
 import { fetchJson } from "@/components/ui/fetch-json";
+import { ActionMessage } from "@/components/ui/action-message";
 import { useFormAction } from "@/components/ui/use-form-action";
-import type { ActionResult } from "@/lib/auth/action";
-
-function Result({ state }: { state: ActionResult | null }) {
-  if (!state) return null;
-  return (
-    <p
-      role={state.ok ? "status" : "alert"}
-      className={`text-sm ${state.ok ? "text-ok-700" : "text-alarm-700"}`}
-    >
-      {state.message}
-    </p>
-  );
-}
 
 /** Moves the known issue to one of the states allowed from here, with the reason. */
 export function StateChangeForm({
@@ -59,7 +47,7 @@ export function StateChangeForm({
       <button type="submit" className={buttonClass.primary} disabled={isPending}>
         {isPending ? "Saving…" : "Change state"}
       </button>
-      <Result state={state} />
+      <ActionMessage state={state} />
     </form>
   );
 }
@@ -81,7 +69,7 @@ export function CommentForm({ knownIssueId }: { knownIssueId: number }) {
       <button type="submit" className={buttonClass.secondary} disabled={isPending}>
         {isPending ? "Adding…" : "Add comment"}
       </button>
-      <Result state={state} />
+      <ActionMessage state={state} />
     </form>
   );
 }
@@ -101,7 +89,7 @@ export function WatchButton({
       <button type="submit" className={buttonClass.secondary} disabled={isPending}>
         {isWatching ? "Stop watching" : "Watch (e-mail me)"}
       </button>
-      {state && !state.ok ? <Result state={state} /> : null}
+      {state && !state.ok ? <ActionMessage state={state} /> : null}
     </form>
   );
 }

@@ -11,6 +11,7 @@ export const NAV_ITEMS: { href: string; label: string; capability: Capability }[
   { href: "/at-risk", label: "At risk", capability: "campaigns:manage" },
   { href: "/comebacks", label: "Comebacks", capability: "comebacks:read" },
   { href: "/stocking", label: "Stocking", capability: "stocking:read" },
+  { href: "/parts", label: "Parts", capability: "parts:manage" },
   { href: "/imports", label: "Imports", capability: "imports:read" },
   { href: "/settings", label: "Settings", capability: "settings:manage" },
 ];

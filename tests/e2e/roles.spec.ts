@@ -12,6 +12,7 @@ const NAV: Record<DemoRole, string[]> = {
     "At risk",
     "Comebacks",
     "Stocking",
+    "Parts",
     "Imports",
     "Settings",
   ],
@@ -25,6 +26,7 @@ const NAV: Record<DemoRole, string[]> = {
     "At risk",
     "Comebacks",
     "Stocking",
+    "Parts",
     "Imports",
   ],
   shopManager: [
@@ -37,6 +39,7 @@ const NAV: Record<DemoRole, string[]> = {
     "At risk",
     "Comebacks",
     "Stocking",
+    "Parts",
     "Imports",
   ],
   technician: ["Home", "Patterns", "Known issues", "Lookup", "Vehicles"],
@@ -53,6 +56,7 @@ const PATHS: Record<string, string> = {
   "At risk": "/at-risk",
   Comebacks: "/comebacks",
   Stocking: "/stocking",
+  Parts: "/parts",
   Imports: "/imports",
   Settings: "/settings",
 };

@@ -6,6 +6,7 @@ import { Panel } from "@/components/ui/panel";
 import { getDb } from "@/db";
 import { getStockingPlan } from "@/db/queries/stocking";
 import { requirePage } from "@/lib/auth/guard";
+import { can } from "@/lib/auth/roles";
 import { formatInterval, formatMoney, formatSig } from "@/lib/format";
 import { SERVICE_LEVELS, StockingQuery } from "@/lib/stocking-request";
 import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
@@ -30,6 +31,13 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
       <PageHeader
         title="Stocking"
         description="Which parts to keep on the shelf for the vehicles this shop sees, from their measured failure rates and how far they drive."
+        actions={
+          can(auth.role, "parts:manage") ? (
+            <Link href="/parts" className={buttonClass.secondary}>
+              Parts list
+            </Link>
+          ) : undefined
+        }
       />
       {problem ? (
         <p role="alert" className="mb-4 text-alarm-700">

@@ -2,8 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { z } from "zod";
 import { AddVehicleForm } from "@/components/vehicles/add-vehicle-form";
-import { buttonClass, inputClass } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/page-header";
+import { SearchForm } from "@/components/ui/search-form";
 import { Pagination } from "@/components/ui/pagination";
 import { getDb } from "@/db";
 import { listVehicles } from "@/db/queries/vehicles";
@@ -32,21 +32,12 @@ export default async function VehiclesPage({ searchParams }: { searchParams: Pag
         title="Vehicles"
         description={`${total.toLocaleString("en-GB")} vehicle${total === 1 ? "" : "s"}${q ? ` matching “${q}”` : ""} in ${auth.organisation.name}.`}
       />
-      <form role="search" className="mb-4 flex max-w-xl gap-2" action="/vehicles">
-        <label className="sr-only" htmlFor="vehicle-search">
-          Search vehicles
-        </label>
-        <input
-          id="vehicle-search"
-          name="q"
-          defaultValue={q}
-          placeholder="VIN, unit number, make or model"
-          className={inputClass}
-        />
-        <button type="submit" className={buttonClass.secondary}>
-          Search
-        </button>
-      </form>
+      <SearchForm
+        action="/vehicles"
+        label="Search vehicles"
+        placeholder="VIN, unit number, make or model"
+        defaultValue={q}
+      />
       <div className="overflow-x-auto rounded-lg border border-line bg-panel">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-line bg-paper text-ink-soft">

@@ -1,0 +1,3 @@
+import { capabilityLayout } from "@/lib/auth/segment";
+
+export default capabilityLayout("parts:manage");
