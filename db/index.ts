@@ -1,6 +1,13 @@
 import { mkdirSync } from "node:fs";
 import { dirname } from "node:path";
-import { createClient, type Client, type Transaction, type TransactionMode } from "@libsql/client";
+import {
+  createClient,
+  type Client,
+  type InStatement,
+  type ResultSet,
+  type Transaction,
+  type TransactionMode,
+} from "@libsql/client";
 import { drizzle, type LibSQLDatabase } from "drizzle-orm/libsql";
 import Database from "libsql";
 import { getEnv } from "@/lib/env";
@@ -78,7 +85,7 @@ export async function openDatabase(
   if (replica) {
     await client.sync();
   } else if (isPlainFile) {
-    serialiseWriteTransactions(client, path);
+    serialiseWrites(client, path);
     await client.execute("PRAGMA journal_mode = WAL");
     await client.execute("PRAGMA synchronous = NORMAL");
     localFileClients.set(client, path);
@@ -88,7 +95,7 @@ export async function openDatabase(
 
 /** Longest wait for another writer (an import's writer thread, another process) to finish. */
 export const BUSY_WAIT_MS = 60_000;
-/** Longest wait for this process's earlier write transactions before giving up. */
+/** Longest wait for this process's earlier writes before giving up. */
 export const TRANSACTION_WAIT_MS = 90_000;
 
 const isBusyError = (e: unknown): boolean => {
@@ -133,18 +140,24 @@ function writeLockWaiter(path: string): { wait: () => Promise<void>; close: () =
   return { wait, close };
 }
 
+/** A statement that writes: what a write transaction or a write lock is needed for. */
+const WRITE_STATEMENT =
+  /^\s*(?:insert|update|delete|replace|create|drop|alter|with\b[\s\S]*?\b(?:insert|update|delete)\b)/i;
+
+const sqlOf = (stmt: InStatement): string => (typeof stmt === "string" ? stmt : stmt.sql);
+
 /**
- * Write transactions of this process on a local file, one at a time, queued without blocking.
- * The file's driver runs each statement synchronously, and SQLite's busy timeout waits inside
- * that call: a second write transaction begun while another of this process is open would hold
- * the event loop, so the first could never reach its commit, and both would stall for the whole
- * timeout before one failed with SQLITE_BUSY. So a write transaction waits here (as a promise)
- * until the process's earlier ones have committed or rolled back, and then (writeLockWaiter)
- * until no other thread or process holds the write lock. Read transactions and single
- * statements are not queued; a single write statement still waits in SQLite's busy handler.
+ * Writes of this process on a local file, one at a time, queued without blocking. The file's
+ * driver runs each statement synchronously, and SQLite's busy timeout waits inside that call: a
+ * write begun while a write transaction of this process is open would hold the event loop, so
+ * the transaction could never reach its commit, and both would stall for the whole timeout
+ * before one failed with SQLITE_BUSY. So a write transaction, a write statement or a batch
+ * waits here (as a promise) for its turn — until the process's earlier writes have ended (a
+ * transaction's at its commit or rollback) — and then (writeLockWaiter) until no other thread or
+ * process holds the write lock. Reads and read transactions go straight through: in WAL mode
+ * they do not wait for writers.
  */
-function serialiseWriteTransactions(client: Client, path: string): void {
-  const begin = client.transaction.bind(client);
+function serialiseWrites(client: Client, path: string): void {
   const lock = path === ":memory:" ? null : writeLockWaiter(path);
   const closeClient = client.close.bind(client);
   client.close = () => {
@@ -152,8 +165,8 @@ function serialiseWriteTransactions(client: Client, path: string): void {
     closeClient();
   };
   let queue: Promise<void> = Promise.resolve();
-  client.transaction = async (mode?: TransactionMode) => {
-    if (mode === "read") return begin(mode);
+  /** Waits for this write's turn and the file's write lock; returns what ends the turn. */
+  const takeTurn = async (): Promise<() => void> => {
     let release!: () => void;
     const turn = new Promise<void>((resolve) => (release = resolve));
     const before = queue;
@@ -169,15 +182,41 @@ function serialiseWriteTransactions(client: Client, path: string): void {
           );
         }),
       ]);
+      await lock?.wait();
     } catch (e) {
       release();
       throw e;
     } finally {
       clearTimeout(timer);
     }
+    return release;
+  };
+  const inTurn = async <T>(work: () => Promise<T>): Promise<T> => {
+    const release = await takeTurn();
+    try {
+      return await work();
+    } finally {
+      release();
+    }
+  };
+
+  const execute = client.execute.bind(client) as (...args: unknown[]) => Promise<ResultSet>;
+  client.execute = ((...args: unknown[]) => {
+    const stmt = args[0] as InStatement;
+    return WRITE_STATEMENT.test(sqlOf(stmt)) ? inTurn(() => execute(...args)) : execute(...args);
+  }) as Client["execute"];
+  const batch = client.batch.bind(client);
+  client.batch = ((stmts: InStatement[], mode?: TransactionMode) =>
+    mode === "read" || !stmts.some((st) => WRITE_STATEMENT.test(sqlOf(st)))
+      ? batch(stmts, mode)
+      : inTurn(() => batch(stmts, mode))) as Client["batch"];
+
+  const begin = client.transaction.bind(client);
+  client.transaction = async (mode?: TransactionMode) => {
+    if (mode === "read") return begin(mode);
+    const release = await takeTurn();
     let tx: Transaction;
     try {
-      await lock?.wait();
       tx = await begin(mode);
     } catch (e) {
       release();

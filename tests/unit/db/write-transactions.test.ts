@@ -10,7 +10,7 @@ import type { Client } from "@libsql/client";
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 /**
- * Two write transactions of one process on a local file (db/index.ts serialiseWriteTransactions):
+ * Two write transactions of one process on a local file (db/index.ts serialiseWrites):
  * without the queue the second one's BEGIN waits inside a synchronous call, the first can never
  * commit, and after the 10 s busy timeout one fails with SQLITE_BUSY.
  */
@@ -64,21 +64,54 @@ describe("write transactions of one process on a file", () => {
     expect(await db.all(sql`select n from t`)).toEqual([{ n: 8 }]);
   });
 
+  test("a write statement or batch outside the transaction waits for its commit, not the busy timeout", async () => {
+    await db.run(sql`delete from t`);
+    const order: string[] = [];
+    let finish!: () => void;
+    const held = new Promise<void>((resolve) => (finish = resolve));
+    const writing = db.transaction(async (tx) => {
+      await tx.run(sql`insert into t values (20)`);
+      await held;
+      order.push("transaction commits");
+    });
+    await pause(10);
+    const single = db.run(sql`insert into t values (21)`).then(() => order.push("statement"));
+    const batch = db
+      .batch([db.run(sql`insert into t values (22)`), db.run(sql`update t set n = n where n = 22`)])
+      .then(() => order.push("batch"));
+    await pause(50);
+    expect(order).toEqual([]); // both wait, and the event loop runs meanwhile
+    const started = performance.now();
+    finish();
+    await Promise.all([writing, single, batch]);
+    expect(performance.now() - started).toBeLessThan(1_000);
+    expect(order).toEqual(["transaction commits", "statement", "batch"]);
+    const rows = await db.all<{ n: number }>(sql`select n from t order by n`);
+    expect(rows.map((r) => r.n)).toEqual([20, 21, 22]);
+  });
+
   test("reads are not queued behind an open write transaction", async () => {
+    await db.run(sql`delete from t`);
+    await db.run(sql`insert into t values (8)`);
     let release!: () => void;
     const held = new Promise<void>((resolve) => (release = resolve));
     const writing = db.transaction(async (tx) => {
       await tx.run(sql`insert into t values (9)`);
       await held;
     });
-    await pause(20);
-    const started = performance.now();
-    // The committed rows, not the open transaction's (WAL: readers see the last commit).
-    expect(await db.all(sql`select n from t order by n`)).toEqual([{ n: 8 }]);
-    expect(await client.execute("select count(*) as c from t")).toMatchObject({ rows: [{ c: 1 }] });
-    expect(performance.now() - started).toBeLessThan(500);
-    release();
-    await writing;
+    try {
+      await pause(20);
+      const started = performance.now();
+      // The committed rows, not the open transaction's (WAL: readers see the last commit).
+      expect(await db.all(sql`select n from t order by n`)).toEqual([{ n: 8 }]);
+      expect(await client.execute("select count(*) as c from t")).toMatchObject({
+        rows: [{ c: 1 }],
+      });
+      expect(performance.now() - started).toBeLessThan(500);
+    } finally {
+      release();
+      await writing;
+    }
   });
 
   test("a writer in another thread: a transaction waits for it without holding the event loop", async () => {
