@@ -13,9 +13,12 @@ export const MAX_QUANTITY = 1_000_000;
 /** Longest lead time accepted, in days. */
 export const MAX_LEAD_DAYS = 365;
 
+/** An empty or all-space field as not given (server actions leave empty fields out already). */
+const blankAsUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+
 const optionalText = (max: number) =>
   z.preprocess(
-    (v) => (typeof v === "string" && v.trim() === "" ? undefined : v),
+    blankAsUndefined,
     z.string().trim().max(max, `At most ${max} characters.`).optional(),
   );
 
@@ -31,17 +34,14 @@ const wholeNumber = (min: number, max: number, required: string) =>
 
 /** An optional whole number: an empty field is "not given". */
 const optionalWhole = (min: number, max: number) =>
-  z.preprocess(
-    (v) => (typeof v === "string" && v.trim() === "" ? undefined : v),
-    wholeNumber(min, max, "Enter a number.").optional(),
-  );
+  z.preprocess(blankAsUndefined, wholeNumber(min, max, "Enter a number.").optional());
 
 /**
  * A unit cost in integer cents from what was typed: "12.5" → 1250, "1,234.50" → 123450, at most
  * two decimals ("12.345" is refused rather than rounded without a word); empty → not given.
  */
 export const CostCents = z.preprocess(
-  (v) => (typeof v === "string" && v.trim() === "" ? undefined : v),
+  blankAsUndefined,
   z
     .string()
     .optional()
@@ -87,7 +87,7 @@ export const NewPartInput = z.object({
   ...PartDetails,
   // Blank (the form sends nothing for an empty field): none on the shelf yet.
   onHand: z.preprocess(
-    (v) => (v === undefined || (typeof v === "string" && v.trim() === "") ? "0" : v),
+    (v) => blankAsUndefined(v) ?? "0",
     wholeNumber(0, MAX_QUANTITY, "Enter a number."),
   ),
 });

@@ -28,7 +28,7 @@ import { getConfiguredBaseUrl } from "@/lib/env";
 import { unitToMiles } from "@/lib/units";
 import { findUserName } from "./accounts";
 import { recordAudit } from "./audit";
-import { componentIdOfSlug as componentIdOf } from "./reference";
+import { componentIdOfSlug as componentIdOf, listComponentCatalogue } from "./reference";
 import { queueEmail } from "./email";
 import { assertCan, ConflictError, inOrg, NotFoundError, orgWhere, type OrgScope } from "./scope";
 
@@ -307,11 +307,7 @@ export async function getCohortChoices(db: Db, scope: OrgScope) {
     .from(vehicles)
     .where(orgWhere(vehicles, scope))
     .orderBy(asc(vehicles.make), asc(vehicles.model));
-  const componentList = await db
-    .select({ slug: components.slug, system: components.system, name: components.name })
-    .from(components)
-    .orderBy(asc(components.system), asc(components.name));
-  return { generations: gens, models, components: componentList };
+  return { generations: gens, models, components: await listComponentCatalogue(db) };
 }
 
 /** The signal (if any) of a computed cell, to link a known issue started from it. */

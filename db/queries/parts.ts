@@ -9,10 +9,11 @@ import type {
   ReceivePartsInput,
 } from "@/lib/part-input";
 import { recordAudit } from "./audit";
-import { componentIdOfSlug } from "./reference";
+import { componentIdOfSlug, listComponentCatalogue } from "./reference";
 import {
   assertCan,
   ConflictError,
+  containsPattern,
   countRows,
   inOrg,
   isUniqueViolation,
@@ -37,8 +38,7 @@ export async function listParts(
   query: { q?: string; page: number; pageSize: number },
 ) {
   assertCan(scope, "parts:manage");
-  const q = query.q?.trim();
-  const pattern = q ? `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%` : undefined;
+  const pattern = containsPattern(query.q);
   const search = pattern
     ? or(
         sql`${parts.partNumber} like ${pattern} escape '\\'`,
@@ -115,10 +115,7 @@ export async function getPart(db: Db, scope: OrgScope, partId: number) {
 /** The components a part can be filed under (shared reference data), by system and name. */
 export async function listComponentChoices(db: Db, scope: OrgScope) {
   assertCan(scope, "parts:manage");
-  return db
-    .select({ slug: components.slug, system: components.system, name: components.name })
-    .from(components)
-    .orderBy(asc(components.system), asc(components.name));
+  return listComponentCatalogue(db);
 }
 
 /** The part as it is now, or NotFoundError (another organisation's part reads as missing). */

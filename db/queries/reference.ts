@@ -1,5 +1,5 @@
 import "server-only";
-import { eq } from "drizzle-orm";
+import { asc, eq } from "drizzle-orm";
 import type { Db, DbOrTx } from "@/db";
 import { NotFoundError } from "./scope";
 import { components, dtcCodes } from "@/db/schema";
@@ -13,6 +13,14 @@ export async function componentOfDtc(db: Db, code: string): Promise<string | nul
     .where(eq(dtcCodes.code, code))
     .limit(1);
   return ref?.slug ?? null;
+}
+
+/** Every component of the shared catalogue (no organisation), by system and name, for choosing. */
+export async function listComponentCatalogue(db: DbOrTx) {
+  return db
+    .select({ slug: components.slug, system: components.system, name: components.name })
+    .from(components)
+    .orderBy(asc(components.system), asc(components.name));
 }
 
 /** The id of a component by its slug; an unknown slug is the caller's mistake (404). */

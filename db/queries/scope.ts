@@ -51,6 +51,15 @@ export function orgWhere(
   return and(eq(table.organisationId, scope.organisationId), ...conditions) as SQL;
 }
 
+/**
+ * A LIKE pattern for "contains this text" (used with `escape '\\'`): % and _ in the text are
+ * literal characters. Undefined for no text or only spaces.
+ */
+export function containsPattern(text: string | undefined): string | undefined {
+  const q = text?.trim();
+  return q ? `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%` : undefined;
+}
+
 /** Values for an insert into a tenant table, with the caller's organisation filled in. */
 export function inOrg<T extends object>(
   scope: OrgScope,

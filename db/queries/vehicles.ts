@@ -13,6 +13,7 @@ import { recordAudit } from "./audit";
 import {
   assertCan,
   ConflictError,
+  containsPattern,
   countRows,
   inOrg,
   NotFoundError,
@@ -24,8 +25,7 @@ export type VehicleListQuery = { q?: string; page: number; pageSize: number };
 
 export async function listVehicles(db: Db, scope: OrgScope, query: VehicleListQuery) {
   assertCan(scope, "vehicles:read");
-  const q = query.q?.trim();
-  const pattern = q ? `%${q.replace(/[%_\\]/g, (c) => `\\${c}`)}%` : undefined;
+  const pattern = containsPattern(query.q);
   const search = pattern
     ? or(
         sql`${vehicles.vin} like ${pattern} escape '\\'`,
