@@ -35,6 +35,8 @@ import { startWorker } from "@/jobs/worker";
 import { loadReferenceData } from "@/db/seed/reference";
 import { DEMO_ORG_SLUGS, loadDemo } from "@/db/seed/demo";
 import { listRankedCells, type RankedCell } from "@/db/queries/cells";
+import { listComponentKinds, setComponentKind } from "@/db/queries/component-kinds";
+import { ANALYSED_KINDS, COMPONENT_KINDS, type AnalysedKind } from "@/lib/component-kinds";
 import { getRefuelAnalysis } from "@/db/queries/refuel";
 import { recomputeOrganisation } from "@/jobs/recompute/recompute";
 import { MIN_PASSWORD_LENGTH } from "@/lib/auth/password";
@@ -300,17 +302,24 @@ export function buildProgram(): Command {
       )
       .join("\n") || "No cells: run recompute first, or nothing matches.";
 
+  const kindOption = () =>
+    new Option("--kind <kind>", "failure cells, or wear cells (premature wear)")
+      .choices(ANALYSED_KINDS)
+      .default("failure");
+
   program
     .command("rank")
     .description("cells ranked by the lower bound of the rate ratio")
     .requiredOption("--org <slug>", "organisation slug")
     .option("--fault <dtc|component>", "only this DTC or component slug")
     .option("--limit <n>", "how many", positiveInt, 20)
+    .addOption(kindOption())
     .action(
-      action(async (opts: { org: string; fault?: string; limit: number }) => {
+      action(async (opts: { org: string; fault?: string; limit: number; kind: AnalysedKind }) => {
         const { db, scope } = await operatorScope(opts.org);
         const { cells } = await listRankedCells(db, scope, {
           fault: opts.fault,
+          kind: opts.kind,
           limit: opts.limit,
         });
         return { data: cells, text: printCells(cells) };
@@ -321,11 +330,68 @@ export function buildProgram(): Command {
     .command("signals")
     .description("cells that stand out after false-discovery control")
     .requiredOption("--org <slug>", "organisation slug")
+    .addOption(kindOption())
+    .action(
+      action(async (opts: { org: string; kind: AnalysedKind }) => {
+        const { db, scope } = await operatorScope(opts.org);
+        const { cells } = await listRankedCells(db, scope, {
+          isSignalOnly: true,
+          kind: opts.kind,
+          limit: 10_000,
+        });
+        return { data: cells, text: printCells(cells) };
+      }),
+    );
+
+  const components = program
+    .command("components")
+    .description("Recurra's component list and the organisation's kind of each");
+  components
+    .command("list")
+    .description("every component with its kind (service, wear or failure) for the organisation")
+    .requiredOption("--org <slug>", "organisation slug")
     .action(
       action(async (opts: { org: string }) => {
         const { db, scope } = await operatorScope(opts.org);
-        const { cells } = await listRankedCells(db, scope, { isSignalOnly: true, limit: 10_000 });
-        return { data: cells, text: printCells(cells) };
+        const rows = (await listComponentKinds(db, scope)).map((c) => ({
+          slug: c.slug,
+          name: c.name,
+          system: c.system,
+          kind: c.kind,
+        }));
+        return {
+          data: rows,
+          text: rows
+            .map((c) => `${c.kind.padEnd(8)} ${c.slug.padEnd(40)} ${c.system} → ${c.name}`)
+            .join("\n"),
+        };
+      }),
+    );
+  components
+    .command("set-kind <component> <kind>")
+    .description("set the organisation's kind of a component (audited; queues a recompute)")
+    .requiredOption("--org <slug>", "organisation slug")
+    .action(
+      action(async (slug: string, kind: string, opts: { org: string }) => {
+        const parsed = z.enum(COMPONENT_KINDS).safeParse(kind);
+        if (!parsed.success)
+          throw new Error(`Kind must be one of ${COMPONENT_KINDS.join(", ")}, not "${kind}".`);
+        const { db, scope } = await operatorScope(opts.org);
+        const result = await setComponentKind(db, scope, slug, parsed.data);
+        const c = result.component;
+        return {
+          data: {
+            slug: c.slug,
+            name: c.name,
+            system: c.system,
+            kind: c.kind,
+            changed: result.isChanged,
+            linesChanged: result.linesChanged,
+          },
+          text: result.isChanged
+            ? `${c.slug} is now ${c.kind}: ${result.linesChanged} repair lines classified again; a recompute is queued.`
+            : `${c.slug} is already ${c.kind}; nothing changed.`,
+        };
       }),
     );
 

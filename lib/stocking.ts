@@ -7,6 +7,7 @@
  * (common practice: A = the parts making the first 80% of the value, B the next 15%, C the rest;
  * Silver, Pyke & Peterson 1998, ch. 3).
  */
+import type { ComponentKind } from "@/lib/component-kinds";
 import { expectedShortfall, gammaSumInterval, poissonStockLevel } from "@/lib/stats";
 
 export type PlannerVehicle = {
@@ -23,6 +24,8 @@ export type PlannerVehicle = {
  * cells computed before posteriors were stored.
  */
 export type ComponentRate = {
+  /** The kind of the repair lines behind the rate (service, wear or failure). */
+  kind?: ComponentKind;
   perMile: number;
   upperPerMile: number;
   posterior?: { shape: number; exposureMi: number };
@@ -44,7 +47,10 @@ export type PlannerInput = {
   vehicles: PlannerVehicle[];
   /** Key "cohortKey|band|componentSlug" → rate. */
   rates: ReadonlyMap<string, ComponentRate>;
-  /** Components with a rate, per cohort: "cohortKey" → component slugs. */
+  /**
+   * Components with a rate, per cohort: "cohortKey" → rate keys, a component slug or its slug
+   * after a prefix ("component:<slug>", "service:<slug>": one component can have both).
+   */
   componentsByCohort: ReadonlyMap<string, readonly string[]>;
   /** Key "cohortKey|componentSlug", falling back to "*|componentSlug" → parts per repair. */
   partUse: ReadonlyMap<string, readonly PartUse[]>;
@@ -84,6 +90,8 @@ export type PartPlan = StockedPart & {
   isStocked: boolean;
   /** Vehicles of the customer base that contribute demand. */
   vehicles: number;
+  /** Expected demand over the period by the kind of work behind it (service, wear, failure). */
+  demandByKind: Record<ComponentKind, number>;
 };
 
 /** Which band an odometer reading falls in. */
@@ -137,6 +145,11 @@ export function planStock(input: PlannerInput): PartPlan[] {
       annualValueCents: part.unitCostCents === null ? null : annualDemand * part.unitCostCents,
       isStocked: shelf.has(partNumber),
       vehicles: demand.contributors.get(partNumber)?.size ?? 0,
+      demandByKind: {
+        service: (demand.byKind.get(partNumber)?.service ?? 0) * periodDays,
+        wear: (demand.byKind.get(partNumber)?.wear ?? 0) * periodDays,
+        failure: (demand.byKind.get(partNumber)?.failure ?? 0) * periodDays,
+      },
     };
   });
   return withAbcClasses(plans);
@@ -172,6 +185,7 @@ function dailyDemand(input: PlannerInput, periodDays: number) {
   const contributors = new Map<string, Set<number>>();
   // Part → cell key → miles per day × parts per repair: what multiplies that cell's rate.
   const weightsPerDay = new Map<string, Map<string, number>>();
+  const byKind = new Map<string, Record<ComponentKind, number>>();
   for (const v of input.vehicles) {
     const band = bandOf(v.odometerMi + (v.milesPerDay * periodDays) / 2, input.bandWidthMi);
     for (const slug of input.componentsByCohort.get(v.cohortKey) ?? []) {
@@ -180,9 +194,15 @@ function dailyDemand(input: PlannerInput, periodDays: number) {
       if (!rate) continue;
       const repairsPerDay = (input.cautious ? rate.upperPerMile : rate.perMile) * v.milesPerDay;
       if (!(repairsPerDay > 0)) continue;
+      const component = slug.slice(slug.indexOf(":") + 1);
       const uses =
-        input.partUse.get(`${v.cohortKey}|${slug}`) ?? input.partUse.get(`*|${slug}`) ?? [];
+        input.partUse.get(`${v.cohortKey}|${component}`) ??
+        input.partUse.get(`*|${component}`) ??
+        [];
       for (const use of uses) {
+        const kinds = byKind.get(use.partNumber) ?? { service: 0, wear: 0, failure: 0 };
+        kinds[rate.kind ?? "failure"] += repairsPerDay * use.perRepair;
+        byKind.set(use.partNumber, kinds);
         perDay.set(
           use.partNumber,
           (perDay.get(use.partNumber) ?? 0) + repairsPerDay * use.perRepair,
@@ -196,7 +216,7 @@ function dailyDemand(input: PlannerInput, periodDays: number) {
       }
     }
   }
-  return { perDay, contributors, weightsPerDay };
+  return { perDay, contributors, weightsPerDay, byKind };
 }
 
 /**

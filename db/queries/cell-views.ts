@@ -1,6 +1,7 @@
 import "server-only";
 import type { Db } from "@/db";
-import { CELL_COLUMNS, cellValues, computeOrganisationCells } from "@/jobs/recompute/recompute";
+import { cellInsertRows } from "@/jobs/recompute/cell-record";
+import { computeOrganisationCells } from "@/jobs/recompute/recompute";
 import { insertStatements } from "@/jobs/import/sql-literal";
 import { assertCan, type OrgScope } from "./scope";
 
@@ -53,7 +54,10 @@ export async function ensureCellView(
   const existing = await find();
   if (existing !== null) return existing;
 
-  const { cells } = await computeOrganisationCells(db, org, filter);
+  // A view is of the analysed cells (failure and wear); service rates serve only the planner.
+  const cells = (await computeOrganisationCells(db, org, filter)).cells.filter(
+    (c) => c.kind !== "service",
+  );
   const tx = await db.$client.transaction("write");
   try {
     const inserted = await tx.execute({
@@ -63,12 +67,8 @@ export async function ensureCellView(
     });
     const viewId = Number(inserted.rows[0]?.id ?? 0);
     if (viewId > 0) {
-      const columns = ["organisation_id", "view_id", ...CELL_COLUMNS.slice(2)];
-      const statements = insertStatements(
-        "cell_view_stats",
-        columns,
-        cells.map((c) => cellValues(org, viewId, c)),
-      );
+      const { columns, rows } = cellInsertRows(org, { column: "view_id", id: viewId }, cells);
+      const statements = insertStatements("cell_view_stats", columns, rows);
       statements.push(
         `delete from cell_views where organisation_id = ${org} and id not in
            (select id from cell_views where organisation_id = ${org} order by id desc limit ${VIEWS_KEPT})`,

@@ -1,6 +1,7 @@
 import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import type { Db } from "@/db";
+import type { AnalysedKind } from "@/lib/component-kinds";
 import { assertCan, type OrgScope } from "./scope";
 
 /** One ranked cell, in the shape the command line and the route handlers share. */
@@ -14,6 +15,8 @@ export type RankedCell = {
   bandTo: number;
   dtc: string | null;
   component: string | null;
+  /** failure or wear (never service): which lines the cell counts. */
+  kind: AnalysedKind;
   events: number;
   exposureMiles: number;
   vehicles: number;
@@ -33,6 +36,8 @@ export type RankedCell = {
 export type CellFilter = {
   /** A DTC ("P0441") or a component slug ("fuel-vapour/purge-valve"). */
   fault?: string;
+  /** Failure cells (the default) or wear cells. */
+  kind?: AnalysedKind;
   make?: string;
   model?: string;
   generation?: string;
@@ -48,6 +53,9 @@ export type CellFilter = {
   /** A filtered view's cells (ensureCellView) instead of the latest run's. */
   viewId?: number | null;
 };
+
+/** The fault keys of the "all faults" totals (failure and wear), which are not faults to rank. */
+export const ALL_FAULT_KEYS_SQL = sql.raw(`('all', 'all:wear')`);
 
 /** The table of the latest run's cells, or of a filtered view's, as `c`, and its condition. */
 export function cellSource(organisationId: number, viewId?: number | null) {
@@ -83,12 +91,17 @@ const num = (v: unknown): number | null => (v === null || v === undefined ? null
 /**
  * Cells of the organisation's latest analysis run ranked by the lower bound of the rate ratio
  * (the stable score statistics.md asks for), then by the shrunk rate. Rates are per 10,000 mi;
- * bands and exposure in miles. The "all faults" totals are left out.
+ * bands and exposure in miles. Failure cells unless wear is asked for; the "all faults" totals
+ * are left out.
  */
 export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilter) {
   assertCan(scope, "patterns:read");
   const source = cellSource(scope.organisationId, filter.viewId);
-  const conditions: SQL[] = [source.where, sql`c.fault_key <> 'all'`];
+  const conditions: SQL[] = [
+    source.where,
+    sql`c.kind = ${filter.kind ?? "failure"}`,
+    sql`c.fault_key not in ${ALL_FAULT_KEYS_SQL}`,
+  ];
   if (filter.fault) {
     // A DTC, a component slug, or a system (the part of component slugs before the "/").
     const f = filter.fault.trim();
@@ -109,7 +122,7 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
   const orderBy = `${column} is null, ${column} ${direction === "asc" ? "asc" : "desc"}, c.shrunk_rate_per_10k desc, c.events desc, c.id`;
   const rows = await db.all<Record<string, unknown>>(sql`
     select c.make, c.model, c.cohort_label, g.year_from, g.year_to, c.band_from_mi, c.band_to_mi, c.dtc,
-           k.slug as component, c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected,
+           k.slug as component, c.kind, c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected,
            c.rate_per_10k, c.rate_lower, c.rate_upper, c.rate_ratio, c.ratio_lower, c.ratio_upper,
            c.p_value, c.q_value, c.shrunk_rate_per_10k, c.is_signal, s.created_at as first_seen
       from ${source.table} c
@@ -135,6 +148,7 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
       bandTo: Number(r.band_to_mi),
       dtc: r.dtc === null ? null : String(r.dtc),
       component: r.component === null ? null : String(r.component),
+      kind: r.kind === "wear" ? "wear" : "failure",
       events: Number(r.events),
       exposureMiles: Number(r.exposure_mi),
       vehicles: Number(r.vehicles_at_risk),

@@ -14,6 +14,8 @@ import {
   type Symptom,
 } from "@/db/schema";
 import { enqueueJob } from "@/jobs/queue";
+import { lineKind } from "@/lib/component-kinds";
+import { getComponentKind } from "./component-kinds";
 import {
   CAUTIONS,
   cautionsForComponent,
@@ -568,6 +570,10 @@ export async function recordFinding(db: Db, scope: OrgScope, input: FindingInput
       input.complaint ??
       (input.symptom ? SYMPTOM_LABELS[input.symptom] : null) ??
       (codes.length ? `Codes ${codes.join(", ")}` : "Recorded from a lookup");
+    const lineComponentId = isConfirmed ? (issue?.componentId ?? null) : namedComponentId;
+    // What was found is not scheduled work: the line's kind is its component's (failure without one).
+    const componentKind =
+      lineComponentId === null ? null : await getComponentKind(tx, scope, lineComponentId);
     const [line] = await tx
       .insert(repairLines)
       .values(
@@ -581,7 +587,8 @@ export async function recordFinding(db: Db, scope: OrgScope, input: FindingInput
           cause,
           correction,
           dtcCodes: codes.join(" ") || null,
-          componentId: isConfirmed ? (issue?.componentId ?? null) : namedComponentId,
+          componentId: lineComponentId,
+          kind: lineKind(componentKind, false),
           symptom: input.symptom ?? null,
           technician: actor?.name ?? null,
         }),

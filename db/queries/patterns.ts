@@ -3,14 +3,16 @@ import { sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import { meanCumulativeFunction } from "@/lib/stats";
 import { ensureCellView, hasViewFilter } from "./cell-views";
-import { cellSource } from "./cells";
+import { ALL_FAULT_KEYS_SQL, cellSource } from "./cells";
+import { allFaultsKey, type AnalysedKind } from "@/lib/component-kinds";
 import { assertCan, type OrgScope } from "./scope";
 
 /** A fault filter: "P0441" (DTC), "fuel-vapour/purge-valve" (component) or "fuel-vapour" (system). */
 export function faultKeyOf(fault: string): string {
   const f = fault.trim();
   if (/^[PCBU][0-3][0-9A-F]{3}$/i.test(f)) return `dtc:${f.toUpperCase()}`;
-  if (f.startsWith("dtc:") || f.startsWith("component:") || f === "all") return f;
+  if (f.startsWith("dtc:") || f.startsWith("component:") || f === "all" || f === "all:wear")
+    return f;
   return `component:${f.toLowerCase()}`;
 }
 
@@ -73,7 +75,7 @@ function toHeatCell(r: Record<string, unknown>): HeatCell {
 }
 
 const CELL_COLUMNS =
-  sql.raw(`c.make, c.model, c.cohort_label, c.fault_key, c.band_index, c.band_from_mi, c.band_to_mi,
+  sql.raw(`c.make, c.model, c.cohort_label, c.fault_key, c.kind, c.band_index, c.band_from_mi, c.band_to_mi,
   c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected, c.rate_per_10k, c.rate_lower, c.rate_upper,
   c.rate_ratio, c.ratio_lower, c.ratio_upper, c.share_affected, c.share_lower, c.share_upper, c.q_value,
   c.is_signal, c.has_too_little_data`);
@@ -91,6 +93,8 @@ export type HeatmapQuery = {
   maxRows?: number;
   /** A filtered view's cells (ensureCellView) instead of the latest run's. */
   viewId?: number | null;
+  /** Failure cells (the default) or wear cells. */
+  kind?: AnalysedKind;
 };
 
 /**
@@ -100,9 +104,11 @@ export type HeatmapQuery = {
 export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
   assertCan(scope, "patterns:read");
   const source = cellSource(scope.organisationId, q.viewId);
-  const conds = [source.where];
-  if (q.view === "cohorts") conds.push(sql`c.fault_key = ${q.fault ? faultKeyOf(q.fault) : "all"}`);
-  else conds.push(sql`c.fault_key <> 'all'`);
+  const kind = q.kind ?? "failure";
+  const conds = [source.where, sql`c.kind = ${kind}`];
+  if (q.view === "cohorts")
+    conds.push(sql`c.fault_key = ${q.fault ? faultKeyOf(q.fault) : allFaultsKey(kind)}`);
+  else conds.push(sql`c.fault_key not in ${ALL_FAULT_KEYS_SQL}`);
   if (q.make) conds.push(sql`c.make = ${q.make}`);
   if (q.model) conds.push(sql`c.model = ${q.model}`);
   if (q.generation) conds.push(sql`c.cohort_label = ${q.generation}`);
@@ -111,7 +117,7 @@ export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
   if (q.view === "faults") {
     // The faults with the most events in this cohort.
     conds.push(sql`c.fault_key in (select c.fault_key from ${source.table} c
-        where ${source.where} and c.fault_key <> 'all'
+        where ${source.where} and c.kind = ${kind} and c.fault_key not in ${ALL_FAULT_KEYS_SQL}
           ${q.make ? sql`and c.make = ${q.make}` : sql``} ${q.model ? sql`and c.model = ${q.model}` : sql``}
           ${q.generation ? sql`and c.cohort_label = ${q.generation}` : sql``}
         group by c.fault_key order by sum(c.events) desc limit ${q.maxRows ?? 25})`);
@@ -133,7 +139,9 @@ export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
       ? `${faultKey.slice(4)}${r.dtc_description ? ` ${String(r.dtc_description)}` : ""}`
       : faultKey.startsWith("component:")
         ? `${String(r.component_system ?? "")} → ${String(r.component_name ?? faultKey.slice(10))}`
-        : "All faults";
+        : kind === "wear"
+          ? "All wear"
+          : "All faults";
     let row = byRow.get(id);
     if (!row) {
       row = {
@@ -163,14 +171,19 @@ export async function getPatternOptions(db: Db, scope: OrgScope) {
   const cohorts = await db.all<{ make: string; model: string; generation: string }>(sql`
     select distinct make, model, cohort_label as generation from cell_stats
      where organisation_id = ${scope.organisationId} order by make, model, cohort_label`);
-  const faults = await db.all<{ fault_key: string; events: number; label: string | null }>(sql`
-    select c.fault_key, sum(c.events) as events,
+  const faults = await db.all<{
+    fault_key: string;
+    kind: AnalysedKind;
+    events: number;
+    label: string | null;
+  }>(sql`
+    select c.fault_key, c.kind, sum(c.events) as events,
            coalesce(d.description, k.system || ' → ' || k.name) as label
       from cell_stats c
       left join dtc_codes d on d.code = c.dtc
       left join components k on k.id = c.component_id
-     where c.organisation_id = ${scope.organisationId} and c.fault_key <> 'all'
-     group by c.fault_key order by sum(c.events) desc`);
+     where c.organisation_id = ${scope.organisationId} and c.fault_key not in ${ALL_FAULT_KEYS_SQL}
+     group by c.fault_key, c.kind order by sum(c.events) desc`);
   return {
     cohorts,
     faults: faults.map((f) => ({
@@ -178,6 +191,7 @@ export async function getPatternOptions(db: Db, scope: OrgScope) {
       label: f.fault_key.startsWith("dtc:")
         ? `${f.fault_key.slice(4)} ${f.label ?? ""}`.trim()
         : (f.label ?? f.fault_key),
+      kind: f.kind,
       events: Number(f.events),
     })),
   };
@@ -198,11 +212,13 @@ export type CellKey = {
 /** The SQL that picks the repair lines behind a cell (its cohort, band and fault). */
 function cellLines(scope: OrgScope, key: CellKey, bandWidthMi: number) {
   const fk = faultKeyOf(key.fault);
+  // The lines a cell counts (jobs/recompute/events.ts): a DTC's failure lines, a component's
+  // failure or wear lines (never its scheduled service), the failure or the wear totals.
   const fault = fk.startsWith("dtc:")
-    ? sql`exists (select 1 from visible_repair_line_codes rc where rc.repair_line_id = l.id and rc.dtc = ${fk.slice(4)})`
+    ? sql`l.kind = 'failure' and exists (select 1 from visible_repair_line_codes rc where rc.repair_line_id = l.id and rc.dtc = ${fk.slice(4)})`
     : fk.startsWith("component:")
-      ? sql`l.component_id = (select id from components where slug = ${fk.slice(10)})`
-      : sql`(l.component_id is not null or l.dtc_codes is not null)`;
+      ? sql`l.kind in ('failure', 'wear') and l.component_id = (select id from components where slug = ${fk.slice(10)})`
+      : sql`l.kind = ${fk === "all:wear" ? "wear" : "failure"} and (l.component_id is not null or l.dtc_codes is not null)`;
   return sql`l.organisation_id = ${scope.organisationId} and v.make = ${key.make} and v.model = ${key.model}
     and coalesce(g.label, cast(v.model_year as text)) = ${key.generation}
     and l.odometer_mi >= ${key.band * bandWidthMi} and l.odometer_mi < ${(key.band + 1) * bandWidthMi}
@@ -318,9 +334,12 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
     ? `${fk.slice(4)}${cellRow.dtc_description ? ` ${String(cellRow.dtc_description)}` : ""}`
     : fk.startsWith("component:")
       ? `${String(cellRow.component_system)} → ${String(cellRow.component_name)}`
-      : "All faults";
+      : fk === "all:wear"
+        ? "All wear"
+        : "All faults";
   return {
     cell: toHeatCell(cellRow),
+    kind: (cellRow.kind === "wear" ? "wear" : "failure") as AnalysedKind,
     faultKey: fk,
     faultLabel,
     confidenceLevel: Number(cellRow.confidence_level),

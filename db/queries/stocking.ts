@@ -2,6 +2,7 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import { median } from "@/lib/at-risk";
 import type { Db } from "@/db";
+import type { ComponentKind } from "@/lib/component-kinds";
 import { planStock, type ComponentRate, type PartUse, type PlannerVehicle } from "@/lib/stocking";
 import { unitToMiles } from "@/lib/units";
 import { assertCan, type OrgScope } from "./scope";
@@ -102,11 +103,14 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
       own.get(Number(r.id)) ?? (byCohort.has(r.cohort) ? median(byCohort.get(r.cohort)!) : overall),
   }));
 
-  // Component cells: the shrunk rate (steady for sparse cells), the rate's upper bound, and
-  // the gamma posterior the shrunk rate is the mean of.
+  // Component cells (failure and wear) and service rates: the shrunk rate (steady for sparse
+  // cells), the rate's upper bound, and the gamma posterior the shrunk rate is the mean of. A
+  // failure component replaced by the schedule has both; its demand is their sum.
   const cells = await db.all<{
     cohort: string;
     band_index: number;
+    kind: ComponentKind;
+    /** The rate's key: "component:<slug>" (failure or wear) or "service:<slug>". */
     slug: string;
     shrunk: number | null;
     rate: number | null;
@@ -114,16 +118,23 @@ export async function getStockingPlan(db: Db, scope: OrgScope, opts: StockingOpt
     shape: number | null;
     exposure: number | null;
   }>(sql`
-    select make || '|' || model || '|' || cohort_label as cohort, band_index,
-           substr(fault_key, 11) as slug, shrunk_rate_per_10k as shrunk, rate_per_10k as rate, rate_upper as upper,
-           posterior_shape as shape, posterior_exposure_mi as exposure
+    select make || '|' || model || '|' || cohort_label as cohort, band_index, kind,
+           fault_key as slug, shrunk_rate_per_10k as shrunk,
+           rate_per_10k as rate, rate_upper as upper, posterior_shape as shape, posterior_exposure_mi as exposure
       from cell_stats
-     where organisation_id = ${scope.organisationId} and fault_key like 'component:%'`);
+     where organisation_id = ${scope.organisationId} and fault_key like 'component:%'
+    union all
+    select make || '|' || model || '|' || cohort_label, band_index, kind,
+           fault_key, shrunk_rate_per_10k, rate_per_10k, rate_upper,
+           posterior_shape, posterior_exposure_mi
+      from service_rates
+     where organisation_id = ${scope.organisationId}`);
   const rates = new Map<string, ComponentRate>();
   const componentsByCohort = new Map<string, string[]>();
   for (const c of cells) {
     const point = c.shrunk ?? c.rate ?? 0;
     rates.set(`${c.cohort}|${c.band_index}|${c.slug}`, {
+      kind: c.kind,
       perMile: point / 10_000,
       upperPerMile: Math.max(point, c.upper ?? point) / 10_000,
       posterior:

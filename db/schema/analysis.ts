@@ -1,6 +1,6 @@
 import { integer, real, sqliteTable, text, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { createdAt, id } from "./columns";
-import { components, generations } from "./catalogue";
+import { COMPONENT_KINDS, components, generations } from "./catalogue";
 import { organisations } from "./organisations";
 
 const orgRef = () =>
@@ -42,8 +42,13 @@ const cellColumns = () => ({
   bandIndex: integer("band_index").notNull(),
   bandFromMi: real("band_from_mi").notNull(),
   bandToMi: real("band_to_mi").notNull(),
-  /** "dtc:P0441", "component:fuel-vapour/purge-valve" or both joined with "+". */
+  /**
+   * "dtc:P0441", "component:fuel-vapour/purge-valve", "all" (every failure line) or "all:wear"
+   * (every wear line).
+   */
   faultKey: text("fault_key").notNull(),
+  /** failure or wear (never service): which lines the cell counts, and its test family. */
+  kind: text("kind", { enum: COMPONENT_KINDS }).notNull().default("failure"),
   dtc: text("dtc"),
   componentId: integer("component_id").references(() => components.id),
   events: integer("events").notNull(),
@@ -91,6 +96,24 @@ export const cellStats = sqliteTable(
   ],
 );
 
+/**
+ * How often the vehicles of a cohort need a scheduled-service component per mileage band (the
+ * same columns as a cell, kind "service"): for the stocking planner only. Service is never a
+ * failure pattern, so these are never tested, ranked or shown as cells.
+ */
+export const serviceRates = sqliteTable(
+  "service_rates",
+  {
+    id: id(),
+    organisationId: orgRef(),
+    runId: integer("run_id")
+      .notNull()
+      .references(() => analysisRuns.id, { onDelete: "cascade" }),
+    ...cellColumns(),
+  },
+  (t) => [index("service_rates_run").on(t.runId)],
+);
+
 export const SIGNAL_STATES = ["new", "seen", "promoted", "dismissed"] as const;
 
 /** A cell that stood out; kept across runs so "first seen" survives recomputes. */
@@ -105,6 +128,7 @@ export const signals = sqliteTable(
     cohortLabel: text("cohort_label").notNull(),
     bandIndex: integer("band_index").notNull(),
     faultKey: text("fault_key").notNull(),
+    kind: text("kind", { enum: COMPONENT_KINDS }).notNull().default("failure"),
     state: text("state", { enum: SIGNAL_STATES }).notNull().default("new"),
     firstSeenAt: createdAt(),
     lastSeenAt: text("last_seen_at").notNull(),

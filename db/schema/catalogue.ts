@@ -1,6 +1,17 @@
+import { sql } from "drizzle-orm";
 import { integer, sqliteTable, text, uniqueIndex, index } from "drizzle-orm/sqlite-core";
+import { COMPONENT_KINDS } from "@/lib/component-kinds";
 import { createdAt, id } from "./columns";
 import { organisations } from "./organisations";
+
+export { COMPONENT_KINDS, type ComponentKind } from "@/lib/component-kinds";
+
+/**
+ * What drives a generation: combustion only, hybrid or electric. Hybrid and electric vehicles
+ * carry high-voltage systems, and every caution shown for them says so.
+ */
+export const POWERTRAINS = ["combustion", "hybrid", "electric"] as const;
+export type Powertrain = (typeof POWERTRAINS)[number];
 
 /** A generation: a model-year range of one model, editable per organisation. */
 export const generations = sqliteTable(
@@ -15,6 +26,8 @@ export const generations = sqliteTable(
     label: text("label").notNull(),
     yearFrom: integer("year_from").notNull(),
     yearTo: integer("year_to").notNull(),
+    /** Null when not known (read as combustion unless the vehicle's engine says otherwise). */
+    powertrain: text("powertrain", { enum: POWERTRAINS }),
     importId: integer("import_id"),
     createdAt: createdAt(),
   },
@@ -36,8 +49,34 @@ export const components = sqliteTable(
     slug: text("slug").notNull().unique(),
     system: text("system").notNull(),
     name: text("name").notNull(),
+    /** Recurra's default kind (service, wear or failure); an organisation may override it. */
+    kind: text("kind", { enum: COMPONENT_KINDS }).notNull().default("failure"),
   },
   (t) => [uniqueIndex("components_system_name").on(t.system, t.name)],
+);
+
+/**
+ * An organisation's own kind for a component, where it differs from Recurra's default (set by
+ * an admin on Settings → Components, audited). Its repair lines are classified again when it
+ * changes.
+ */
+export const componentKinds = sqliteTable(
+  "component_kinds",
+  {
+    id: id(),
+    organisationId: integer("organisation_id")
+      .notNull()
+      .references(() => organisations.id, { onDelete: "cascade" }),
+    componentId: integer("component_id")
+      .notNull()
+      .references(() => components.id),
+    kind: text("kind", { enum: COMPONENT_KINDS }).notNull(),
+    /** When the kind was last set. */
+    setAt: text("set_at")
+      .notNull()
+      .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+  },
+  (t) => [uniqueIndex("component_kinds_org_component").on(t.organisationId, t.componentId)],
 );
 
 export const componentAliases = sqliteTable(

@@ -1,6 +1,6 @@
 import { integer, real, sqliteTable, text, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { cents, createdAt, id } from "./columns";
-import { components } from "./catalogue";
+import { COMPONENT_KINDS, components } from "./catalogue";
 import { organisations } from "./organisations";
 import { vehicles } from "./vehicles";
 
@@ -88,6 +88,13 @@ export const repairLines = sqliteTable(
     technician: text("technician"),
     vendor: text("vendor"),
     isWarranty: integer("is_warranty", { mode: "boolean" }).notNull().default(false),
+    /** The line reads as scheduled work (isScheduledWork in lib/component-kinds.ts). */
+    isScheduled: integer("is_scheduled", { mode: "boolean" }).notNull().default(false),
+    /**
+     * service, wear or failure (lineKind): from the component's kind for the organisation and
+     * isScheduled; classified again when the organisation changes a component's kind.
+     */
+    kind: text("kind", { enum: COMPONENT_KINDS }).notNull().default("failure"),
     importId: integer("import_id"),
   },
   (t) => [

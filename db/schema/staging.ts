@@ -69,6 +69,8 @@ export const stagedRepairs = sqliteTable(
     technician: text("technician"),
     vendor: text("vendor"),
     isWarranty: integer("is_warranty", { mode: "boolean" }).notNull().default(false),
+    isScheduled: integer("is_scheduled", { mode: "boolean" }).notNull().default(false),
+    kind: text("kind").notNull().default("failure"),
   },
   // The apply step walks an import's repair orders in RO-number ranges, a chunk at a time.
   (t) => [index("staged_repairs_import_ro").on(t.importId, t.roNumber)],
@@ -120,4 +122,5 @@ export const stagedGenerations = sqliteTable("staged_generations", {
   label: text("label").notNull(),
   yearFrom: integer("year_from").notNull(),
   yearTo: integer("year_to").notNull(),
+  powertrain: text("powertrain"),
 });

@@ -107,8 +107,8 @@ function plan(kind: Exclude<ImportKind, ChunkedKind>, org: number, imp: number):
     case "generations":
       return {
         statements: [
-          `insert into generations (organisation_id, make, model, label, year_from, year_to, import_id)
-             select ${org}, s.make, s.model, s.label, s.year_from, s.year_to, ${imp}
+          `insert into generations (organisation_id, make, model, label, year_from, year_to, powertrain, import_id)
+             select ${org}, s.make, s.model, s.label, s.year_from, s.year_to, s.powertrain, ${imp}
                from ${staged} s
               where s.id in (select min(id) from ${staged} where import_id = ${imp} group by make, model, label)
                 and not exists (select 1 from generations g where g.organisation_id = ${org}
@@ -197,11 +197,11 @@ function chunkStatements(
         {
           sql: `insert into repair_lines (organisation_id, repair_order_id, vehicle_id, line_no, opened_on, odometer_mi,
                 complaint, cause, correction, dtc_codes, component_id, symptom, labor_hours, parts_cost_cents,
-                labor_cost_cents, part_numbers, technician, vendor, is_warranty, import_id)
+                labor_cost_cents, part_numbers, technician, vendor, is_warranty, is_scheduled, kind, import_id)
              select ${org}, o.id, o.vehicle_id, row_number() over (partition by o.id order by s.id), s.opened_on,
                     coalesce(s.odometer_mi, o.odometer_mi), s.complaint, s.cause, s.correction, s.dtc_codes,
                     s.component_id, s.symptom, s.labor_hours, s.parts_cost_cents, s.labor_cost_cents,
-                    s.part_numbers, s.technician, s.vendor, s.is_warranty, ${imp}
+                    s.part_numbers, s.technician, s.vendor, s.is_warranty, s.is_scheduled, s.kind, ${imp}
                from ${staged} s
                -- CROSS JOIN keeps the staged rows outside, so each finds its order through the
                -- (organisation, RO number) index instead of scanning the staged table per order.

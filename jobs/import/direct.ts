@@ -193,7 +193,7 @@ const ORDER_COLUMNS = [
   "vendor",
 ];
 // STAGING.repairs order: 0–4 vehicle, 5 ro_number, 6 opened_on, 7 closed_on, 8 odometer_mi,
-// then the line's own columns (complaint … is_warranty), copied as they are.
+// then the line's own columns (complaint … is_warranty, is_scheduled, kind), copied as they are.
 const LINE_OWN_FROM = 9;
 const LINE_COLUMNS = [
   "id",
@@ -321,7 +321,7 @@ function directSink(
       pending++;
       if (kind === "repairs") {
         // v is in STAGING.repairs order: 5 ro_number, 6 opened_on, 7 closed_on, 8 odometer_mi,
-        // 9 complaint … 20 vendor, 21 is_warranty.
+        // 9 complaint … 20 vendor, 21 is_warranty, 22 is_scheduled, 23 kind.
         const ro = v[5] as string;
         const { n: order, isNew } = orders.findOrAdd(ro, vehicleId, v[8] as number | null);
         if (isNew) {

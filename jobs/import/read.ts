@@ -2,9 +2,16 @@ import { isUtf8 } from "node:buffer";
 import { createReadStream } from "node:fs";
 import { Transform } from "node:stream";
 import { parse } from "csv-parse";
-import { eq } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import { isLocalFileDatabase, type Db } from "@/db";
-import { componentAliases, components, vehicles, type ImportKind } from "@/db/schema";
+import {
+  componentAliases,
+  componentKinds,
+  components,
+  vehicles,
+  type ComponentKind,
+  type ImportKind,
+} from "@/db/schema";
 import {
   buildComponentIndex,
   createRowReader,
@@ -19,7 +26,7 @@ import { importParseOptions, MAX_RECORD_CHARS, recordBatches } from "./csv-strea
 import { FingerprintSet, fingerprintValues } from "./fingerprint-set";
 import { OdometerChecks } from "./odometer-checks";
 import { insertStatements, type SqlValue } from "./sql-literal";
-import { readingDate, STAGING } from "./stage-rows";
+import { readingDate, STAGING, type RowContext } from "./stage-rows";
 
 /** Rows per staging commit: large enough to be fast, small enough for a lively progress bar. */
 const FLUSH_ROWS = 5_000;
@@ -248,8 +255,16 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
         slug: components.slug,
         system: components.system,
         name: components.name,
+        kind: sql<ComponentKind>`coalesce(${componentKinds.kind}, ${components.kind})`,
       })
-      .from(components),
+      .from(components)
+      .leftJoin(
+        componentKinds,
+        and(
+          eq(componentKinds.componentId, components.id),
+          eq(componentKinds.organisationId, input.organisationId),
+        ),
+      ),
     db
       .select({ alias: componentAliases.alias, componentId: componentAliases.componentId })
       .from(componentAliases)
@@ -267,10 +282,14 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
           .where(eq(vehicles.organisationId, input.organisationId))
       : Promise.resolve([]),
   ]);
-  const componentOf = buildComponentIndex(
-    componentRows,
-    new Map(aliasRows.map((a) => [a.alias, a.componentId])),
-  );
+  const kinds = new Map(componentRows.map((c) => [c.id, c.kind]));
+  const context: RowContext = {
+    componentOf: buildComponentIndex(
+      componentRows,
+      new Map(aliasRows.map((a) => [a.alias, a.componentId])),
+    ),
+    kindOf: (id) => kinds.get(id),
+  };
   // Known vehicles by VIN and unit number; rows naming a new vehicle add it (if they describe it).
   const knownVins = new Map<string, number | null>();
   const knownUnits = new Map<string, number | null>();
@@ -395,7 +414,7 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
             }
           }
           if (isOk) {
-            const values = layout.toValues(row as never, componentOf);
+            const values = layout.toValues(row as never, context);
             if (kind === "repairs") {
               if (!seen.add(fingerprintValues(values))) {
                 isOk = false;

@@ -1,16 +1,26 @@
 import type { ImportKind } from "@/db/schema";
+import { isScheduledWork, lineKind, type ComponentKind } from "@/lib/component-kinds";
 import type { ComponentLookup, TypedRow } from "@/lib/import";
 import type { SqlValue } from "./sql-literal";
 
 /**
+ * What a row is matched against: the organisation's component text (with its aliases) and the
+ * kind of each component for the organisation (its own where it set one, else Recurra's).
+ */
+export type RowContext = {
+  componentOf: ComponentLookup;
+  kindOf: (componentId: number) => ComponentKind | undefined;
+};
+
+/**
  * How a checked row is written to its staging table: the table, its columns, and a function
  * from the typed row to the column values. Components are matched here (the organisation's
- * aliases are known only to the pipeline).
+ * aliases are known only to the pipeline), and a repair line's kind worked out (lineKind).
  */
 export type StagingLayout<K extends ImportKind> = {
   table: string;
   columns: readonly string[];
-  toValues: (row: TypedRow<K>, components: ComponentLookup) => SqlValue[];
+  toValues: (row: TypedRow<K>, context: RowContext) => SqlValue[];
 };
 
 const VEHICLE_COLUMNS = ["unit_number", "vin", "make", "model", "model_year"] as const;
@@ -70,27 +80,44 @@ export const STAGING: { [K in ImportKind]: StagingLayout<K> } = {
       "technician",
       "vendor",
       "is_warranty",
+      "is_scheduled",
+      "kind",
     ],
-    toValues: (r, components) => [
-      ...vehicleValues(r),
-      r.roNumber,
-      r.openedOn,
-      r.closedOn,
-      r.odometerMi,
-      r.complaint,
-      r.cause,
-      r.correction,
-      r.dtcCodes.length ? r.dtcCodes.join(" ") : null,
-      components(r.componentText),
-      r.symptom,
-      r.laborHours,
-      r.partsCostCents,
-      r.laborCostCents,
-      r.partNumbers,
-      r.technician,
-      r.vendor,
-      r.isWarranty,
-    ],
+    toValues: (r, { componentOf, kindOf }) => {
+      const componentId = componentOf(r.componentText);
+      const isScheduled = isScheduledWork({
+        complaint: r.complaint,
+        cause: r.cause,
+        correction: r.correction,
+        hasDtc: r.dtcCodes.length > 0,
+      });
+      const kind = lineKind(
+        componentId === null ? null : (kindOf(componentId) ?? null),
+        isScheduled,
+      );
+      return [
+        ...vehicleValues(r),
+        r.roNumber,
+        r.openedOn,
+        r.closedOn,
+        r.odometerMi,
+        r.complaint,
+        r.cause,
+        r.correction,
+        r.dtcCodes.length ? r.dtcCodes.join(" ") : null,
+        componentId,
+        r.symptom,
+        r.laborHours,
+        r.partsCostCents,
+        r.laborCostCents,
+        r.partNumbers,
+        r.technician,
+        r.vendor,
+        r.isWarranty,
+        isScheduled,
+        kind,
+      ];
+    },
   },
   faults: {
     table: "staged_faults",
@@ -126,10 +153,10 @@ export const STAGING: { [K in ImportKind]: StagingLayout<K> } = {
       "unit_cost_cents",
       "lead_time_days",
     ],
-    toValues: (r, components) => [
+    toValues: (r, { componentOf }) => [
       r.partNumber,
       r.description,
-      components(r.componentText),
+      componentOf(r.componentText),
       r.onHand,
       r.unitCostCents,
       r.leadTimeDays,
@@ -137,8 +164,8 @@ export const STAGING: { [K in ImportKind]: StagingLayout<K> } = {
   },
   generations: {
     table: "staged_generations",
-    columns: ["make", "model", "label", "year_from", "year_to"],
-    toValues: (r) => [r.make, r.model, r.generation, r.yearFrom, r.yearTo],
+    columns: ["make", "model", "label", "year_from", "year_to", "powertrain"],
+    toValues: (r) => [r.make, r.model, r.generation, r.yearFrom, r.yearTo, r.powertrain],
   },
 };
 

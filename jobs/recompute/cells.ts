@@ -5,6 +5,7 @@ import {
   rateRatio,
   wilsonInterval,
 } from "@/lib/stats";
+import { ANALYSED_KINDS, type ComponentKind } from "@/lib/component-kinds";
 import type { Cohort } from "./cohorts";
 import type { EventCount } from "./events";
 import type { BandExposure } from "./exposure";
@@ -15,6 +16,11 @@ export type CellStat = {
   bandFromMi: number;
   bandToMi: number;
   faultKey: string;
+  /**
+   * failure or wear: the lines counted, and the family of the false-discovery control; service
+   * for the stocking planner's service rates (never tested).
+   */
+  kind: ComponentKind;
   dtc: string | null;
   componentId: number | null;
   events: number;
@@ -34,7 +40,7 @@ export type CellStat = {
   ratioLower: number | null;
   ratioUpper: number | null;
   pValue: number | null;
-  /** Benjamini–Hochberg adjusted p-value over every tested cell of the run. */
+  /** Benjamini–Hochberg adjusted p-value over the tested cells of the run of the same kind. */
   qValue: number | null;
   shrunkRatePer10k: number | null;
   /** The rate's gamma posterior: shape and rate (miles), null without shrinkage. */
@@ -64,7 +70,7 @@ const finite = (v: number): number | null => (Number.isFinite(v) ? v : null);
 /**
  * Statistics of every cohort × mileage band × fault cell (statistics.md): exact Poisson rate,
  * Wilson share of vehicles affected, exact rate ratio against the rest of the fleet in the same
- * band, Benjamini–Hochberg q over all tested cells, gamma–Poisson shrunk rate (prior fitted per
+ * band, Benjamini–Hochberg q over the tested cells of the same kind (failure or wear), gamma–Poisson shrunk rate (prior fitted per
  * fault across its cells) and the signal rule: q ≤ 0.05, ratio lower bound > 1, ≥ 3 events,
  * enough exposure. For each fault, every cohort with exposure in a band where the fault
  * occurred gets a cell, so a zero shows as a zero with its interval, not as a gap.
@@ -80,12 +86,20 @@ export function computeCells(input: CellInput): CellStat[] {
   // Events by fault → band → cohort.
   const byFault = new Map<
     string,
-    { dtc: string | null; componentId: number | null; bands: Map<number, Map<string, EventCount>> }
+    {
+      kind: ComponentKind;
+      dtc: string | null;
+      componentId: number | null;
+      bands: Map<number, Map<string, EventCount>>;
+    }
   >();
   for (const c of input.counts) {
     let f = byFault.get(c.faultKey);
     if (!f)
-      byFault.set(c.faultKey, (f = { dtc: c.dtc, componentId: c.componentId, bands: new Map() }));
+      byFault.set(
+        c.faultKey,
+        (f = { kind: c.kind, dtc: c.dtc, componentId: c.componentId, bands: new Map() }),
+      );
     let band = f.bands.get(c.band);
     if (!band) f.bands.set(c.band, (band = new Map()));
     band.set(c.cohortKey, c);
@@ -115,6 +129,7 @@ export function computeCells(input: CellInput): CellStat[] {
           bandFromMi: band * input.bandWidthMi,
           bandToMi: (band + 1) * input.bandWidthMi,
           faultKey,
+          kind: fault.kind,
           dtc: fault.dtc,
           componentId: fault.componentId,
           events,
@@ -185,12 +200,19 @@ export function computeCells(input: CellInput): CellStat[] {
     cells.push(...faultCells);
   }
 
-  // One false-discovery correction over every fault cell that was tested (the "all faults"
-  // totals are a summary, not a hypothesis, and stay out of the count).
-  const tested = cells.filter(
-    (c) => c.faultKey !== "all" && !c.hasTooLittleData && c.pValue !== null,
-  );
-  if (tested.length > 0) {
+  // One false-discovery correction per kind over every fault cell of that kind that was tested
+  // (the "all faults" totals are a summary, not a hypothesis, and stay out of the count): the
+  // failure analysis and the wear analysis are separate families, so adding wear lines never
+  // moves a failure signal.
+  for (const kind of ANALYSED_KINDS) {
+    const tested = cells.filter(
+      (c) =>
+        c.kind === kind &&
+        !c.faultKey.startsWith("all") &&
+        !c.hasTooLittleData &&
+        c.pValue !== null,
+    );
+    if (tested.length === 0) continue;
     const { adjusted } = benjaminiHochberg(
       tested.map((c) => c.pValue as number),
       fdr,

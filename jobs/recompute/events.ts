@@ -1,12 +1,21 @@
 import { localDatabasePath, type Db } from "@/db";
+import { allFaultsKey, type ComponentKind } from "@/lib/component-kinds";
 import { readInThread } from "../db-thread";
 import { COHORT_LABEL_SQL, cohortKey } from "./cohorts";
 
 export type EventCount = {
   cohortKey: string;
   band: number;
-  /** "dtc:P0441", "component:<slug>" or "all" (every repair line with a DTC or a component). */
+  /**
+   * "dtc:P0441", "component:<slug>", "all" (every failure line with a DTC or a component) or
+   * "all:wear" (every wear line).
+   */
   faultKey: string;
+  /**
+   * Which lines the count is of: failure or wear, or service (component counts only, for the
+   * stocking planner's service rates: never a cell).
+   */
+  kind: ComponentKind;
   dtc: string | null;
   componentId: number | null;
   events: number;
@@ -30,12 +39,23 @@ function filterSql(filter: EventFilter): { sql: string; args: (string | null)[] 
 
 type Row = Record<string, unknown>;
 
+const kindOf = (v: unknown): ComponentKind =>
+  v === "service" ? "service" : v === "wear" ? "wear" : "failure";
+
 const MISSING_SQL = `select count(*) as n from visible_repair_lines where organisation_id = ?1 and odometer_mi is null`;
 
 /**
- * Repairs per cohort × mileage band × fault. An event is a repair line: for a DTC, a line that
- * lists it; for a component, a line on it; a vehicle back for the same fault counts again
- * (recurrences are the point). Lines without an odometer reading cannot be placed in a band and
+ * A component's fault key: "component:<slug>" for its failure or wear lines, "service:<slug>"
+ * for its service lines (a failure component's scheduled replacements).
+ */
+export const componentFaultKey = (kind: ComponentKind, slug: string) =>
+  `${kind === "service" ? "service" : "component"}:${slug}`;
+
+/**
+ * Repairs per cohort × mileage band × fault. An event is a failure or wear repair line
+ * (lib/component-kinds.ts): for a DTC, a failure line that lists it; for a component, a line on
+ * it, of the component's kind; a vehicle back for the same fault counts again (recurrences are
+ * the point). Service lines are counted per component only, for the stocking planner. Lines without an odometer reading cannot be placed in a band and
  * are counted separately. Two ways to the same numbers (a test holds them equal): on a local
  * file, countEventsPerVehicle, on a second core; on a libSQL server, countEventsByCohort.
  */
@@ -71,33 +91,34 @@ export async function countEventsByCohort(
   const [byDtc, byComponent, all, missing] = await db.$client.batch(
     [
       {
-        sql: `select ${cohort}, 'dtc:' || c.dtc as fault_key, c.dtc, null as component_id,
+        sql: `select ${cohort}, 'dtc:' || c.dtc as fault_key, 'failure' as kind, c.dtc, null as component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
                 from visible_repair_line_codes c
                 join visible_repair_lines l on l.id = c.repair_line_id
                 ${vehicle}
-               where c.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
+               where c.organisation_id = ?1 and l.odometer_mi is not null and l.kind = 'failure'${only.sql}
                group by 1, 2, 3, 4, c.dtc`,
         args,
       },
       {
-        sql: `select ${cohort}, 'component:' || k.slug as fault_key, null as dtc, l.component_id,
+        sql: `select ${cohort}, case l.kind when 'service' then 'service:' else 'component:' end || k.slug as fault_key, l.kind, null as dtc, l.component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
                 from visible_repair_lines l
                 join components k on k.id = l.component_id
                 ${vehicle}
                where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
-               group by 1, 2, 3, 4, l.component_id`,
+               group by 1, 2, 3, 4, l.component_id, l.kind`,
         args,
       },
       {
-        sql: `select ${cohort}, 'all' as fault_key, null as dtc, null as component_id,
+        sql: `select ${cohort}, case l.kind when 'failure' then 'all' else 'all:wear' end as fault_key, l.kind,
+                     null as dtc, null as component_id,
                      count(*) as events, count(distinct l.vehicle_id) as affected
                 from visible_repair_lines l
                 ${vehicle}
-               where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
+               where l.organisation_id = ?1 and l.odometer_mi is not null and l.kind in ('failure', 'wear')${only.sql}
                  and (l.component_id is not null or l.dtc_codes is not null)
-               group by 1, 2, 3, 4`,
+               group by 1, 2, 3, 4, l.kind`,
         args,
       },
       { sql: MISSING_SQL, args: [organisationId] },
@@ -111,6 +132,7 @@ export async function countEventsByCohort(
         cohortKey: cohortKey(String(r.make), String(r.model), String(r.label)),
         band: Number(r.band),
         faultKey: String(r.fault_key),
+        kind: kindOf(r.kind),
         dtc: r.dtc === null ? null : String(r.dtc),
         componentId: r.component_id === null ? null : Number(r.component_id),
         events: Number(r.events),
@@ -144,17 +166,16 @@ export async function countEventsPerVehicle(
       sql: `select c.vehicle_id, ${band} as band, c.dtc, count(*) as n
               from visible_repair_line_codes c
               join visible_repair_lines l on l.id = c.repair_line_id
-             where c.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
+             where c.organisation_id = ?1 and l.odometer_mi is not null and l.kind = 'failure'${only.sql}
              group by c.vehicle_id, band, c.dtc`,
       args,
     },
     {
-      sql: `select l.vehicle_id, ${band} as band, l.component_id, l.dtc_codes is not null as has_dtc,
-                   count(*) as n
+      sql: `select l.vehicle_id, ${band} as band, l.component_id, l.kind, count(*) as n
               from visible_repair_lines l
              where l.organisation_id = ?1 and l.odometer_mi is not null${only.sql}
                and (l.component_id is not null or l.dtc_codes is not null)
-             group by l.vehicle_id, band, l.component_id, has_dtc`,
+             group by l.vehicle_id, band, l.component_id, l.kind`,
       args,
     },
   ]);
@@ -187,7 +208,7 @@ export async function countEventsPerVehicle(
   const add = (
     vehicleId: number,
     bandIndex: number,
-    fault: Pick<EventCount, "faultKey" | "dtc" | "componentId">,
+    fault: Pick<EventCount, "faultKey" | "kind" | "dtc" | "componentId">,
     n: number,
   ) => {
     const cohort = cohortOf.get(vehicleId);
@@ -216,23 +237,34 @@ export async function countEventsPerVehicle(
     add(
       Number(r.vehicle_id),
       Number(r.band),
-      { faultKey: `dtc:${dtc}`, dtc, componentId: null },
+      { faultKey: `dtc:${dtc}`, kind: "failure", dtc, componentId: null },
       Number(r.n),
     );
   }
-  const all = { faultKey: "all", dtc: null, componentId: null };
   for (const r of lineRows) {
     const vehicleId = Number(r.vehicle_id);
     const bandIndex = Number(r.band);
     const n = Number(r.n);
+    const kind = kindOf(r.kind);
     if (r.component_id !== null) {
       const componentId = Number(r.component_id);
       const slug = slugOf.get(componentId);
       if (slug !== undefined) {
-        add(vehicleId, bandIndex, { faultKey: `component:${slug}`, dtc: null, componentId }, n);
+        add(
+          vehicleId,
+          bandIndex,
+          { faultKey: componentFaultKey(kind, slug), kind, dtc: null, componentId },
+          n,
+        );
       }
     }
-    add(vehicleId, bandIndex, all, n);
+    if (kind === "service") continue;
+    add(
+      vehicleId,
+      bandIndex,
+      { faultKey: allFaultsKey(kind), kind, dtc: null, componentId: null },
+      n,
+    );
   }
   const counts = [...tallies.values()].map(({ seen: _seen, ...count }) => count);
   return { counts, linesWithoutOdometer: Number(missingRows[0]?.n ?? 0) };

@@ -2,7 +2,8 @@ import { eq } from "drizzle-orm";
 import type { Db } from "@/db";
 import { organisations } from "@/db/schema";
 import { unitToMiles } from "@/lib/units";
-import { insertStatements, type SqlValue } from "../import/sql-literal";
+import { insertStatements } from "../import/sql-literal";
+import { cellInsertRows } from "./cell-record";
 import { computeCells, type CellStat } from "./cells";
 import { countEvents, type EventFilter } from "./events";
 import { computeExposure } from "./exposure";
@@ -17,81 +18,8 @@ export type RecomputeResult = {
   seconds: number;
 };
 
-export const CELL_COLUMNS = [
-  "organisation_id",
-  "run_id",
-  "make",
-  "model",
-  "generation_id",
-  "cohort_label",
-  "band_index",
-  "band_from_mi",
-  "band_to_mi",
-  "fault_key",
-  "dtc",
-  "component_id",
-  "events",
-  "exposure_mi",
-  "vehicles_at_risk",
-  "vehicles_affected",
-  "rate_per_10k",
-  "rate_lower",
-  "rate_upper",
-  "share_affected",
-  "share_lower",
-  "share_upper",
-  "rate_ratio",
-  "ratio_lower",
-  "ratio_upper",
-  "p_value",
-  "q_value",
-  "shrunk_rate_per_10k",
-  "posterior_shape",
-  "posterior_exposure_mi",
-  "is_signal",
-  "has_too_little_data",
-] as const;
-
 export function cellKey(c: Pick<CellStat, "cohort" | "band" | "faultKey">): string {
   return `${c.cohort.key}|${c.band}|${c.faultKey}`;
-}
-
-/** A cell's values in CELL_COLUMNS order (the second is its run, or its view). */
-export function cellValues(org: number, runId: number, c: CellStat): SqlValue[] {
-  return [
-    org,
-    runId,
-    c.cohort.make,
-    c.cohort.model,
-    c.cohort.generationId,
-    c.cohort.label,
-    c.band,
-    c.bandFromMi,
-    c.bandToMi,
-    c.faultKey,
-    c.dtc,
-    c.componentId,
-    c.events,
-    c.exposureMi,
-    c.vehiclesAtRisk,
-    c.vehiclesAffected,
-    c.ratePer10k,
-    c.rateLower,
-    c.rateUpper,
-    c.shareAffected,
-    c.shareLower,
-    c.shareUpper,
-    c.rateRatio,
-    c.ratioLower,
-    c.ratioUpper,
-    c.pValue,
-    c.qValue,
-    c.shrunkRatePer10k,
-    c.posteriorShape,
-    c.posteriorExposureMi,
-    c.isSignal,
-    c.hasTooLittleData,
-  ];
 }
 
 /**
@@ -144,10 +72,13 @@ export async function recomputeOrganisation(
   const started = performance.now();
   const at = () => ((performance.now() - started) / 1000).toFixed(1);
   const phases: string[] = [];
-  const { cells, exposure, linesWithoutOdometer, bandWidthMi, confidenceLevel } =
-    await computeOrganisationCells(db, organisationId, {}, (phase) =>
-      phases.push(`${phase} ${at()} s`),
-    );
+  const computed = await computeOrganisationCells(db, organisationId, {}, (phase) =>
+    phases.push(`${phase} ${at()} s`),
+  );
+  const { exposure, linesWithoutOdometer, bandWidthMi, confidenceLevel } = computed;
+  // Service components' rates go to the stocking planner's table, never among the cells.
+  const cells = computed.cells.filter((c) => c.kind !== "service");
+  const serviceRates = computed.cells.filter((c) => c.kind === "service");
   const signals = cells.filter((c) => c.isSignal);
   phases.push(`statistics ${at()} s`);
 
@@ -167,9 +98,15 @@ export async function recomputeOrganisation(
       ],
     });
     runId = Number(run.rows[0]?.id);
-    const rows = cells.map((c) => cellValues(organisationId, runId, c));
-    const statements = insertStatements("cell_stats", CELL_COLUMNS, rows, 500);
-    // Older runs (and their cells, by cascade) are replaced by this one.
+    const { columns, rows } = cellInsertRows(
+      organisationId,
+      { column: "run_id", id: runId },
+      cells,
+    );
+    const statements = insertStatements("cell_stats", columns, rows, 500);
+    const service = cellInsertRows(organisationId, { column: "run_id", id: runId }, serviceRates);
+    statements.push(...insertStatements("service_rates", service.columns, service.rows, 500));
+    // Older runs (and their cells and service rates, by cascade) are replaced by this one.
     statements.push(
       `delete from analysis_runs where organisation_id = ${organisationId} and id <> ${runId}`,
     );
@@ -178,15 +115,15 @@ export async function recomputeOrganisation(
     for (let i = 0; i < signals.length; i += 200) {
       const chunk = signals.slice(i, i + 200);
       const values = chunk
-        .map(() => "(?, ?, ?, ?, ?, ?, ?, 'new', ?, ?, ?, ?, ?, ?, ?, ?, ?)")
+        .map(() => "(?, ?, ?, ?, ?, ?, ?, ?, 'new', ?, ?, ?, ?, ?, ?, ?, ?, ?)")
         .join(", ");
       await tx.execute({
         // signals.created_at is the moment a signal first appeared (firstSeenAt in the schema).
-        sql: `insert into signals (organisation_id, cell_key, make, model, cohort_label, band_index, fault_key, state,
+        sql: `insert into signals (organisation_id, cell_key, make, model, cohort_label, band_index, fault_key, kind, state,
                 created_at, last_seen_at, last_run_id, events, exposure_mi, rate_ratio, ratio_lower, ratio_upper, q_value)
               values ${values}
               on conflict (organisation_id, cell_key) do update set
-                last_seen_at = excluded.last_seen_at, last_run_id = excluded.last_run_id, events = excluded.events,
+                kind = excluded.kind, last_seen_at = excluded.last_seen_at, last_run_id = excluded.last_run_id, events = excluded.events,
                 exposure_mi = excluded.exposure_mi, rate_ratio = excluded.rate_ratio, ratio_lower = excluded.ratio_lower,
                 ratio_upper = excluded.ratio_upper, q_value = excluded.q_value`,
         args: chunk.flatMap((c) => [
@@ -197,6 +134,7 @@ export async function recomputeOrganisation(
           c.cohort.label,
           c.band,
           c.faultKey,
+          c.kind,
           now,
           now,
           runId,

@@ -27,6 +27,7 @@ export type ColumnType =
   | "volume-unit"
   | "symptom"
   | "status"
+  | "powertrain"
   | "component";
 
 export type ColumnSpec = {
@@ -584,6 +585,14 @@ export const IMPORT_COLUMNS: Readonly<Record<ImportKind, readonly ColumnSpec[]>>
         "through",
       ]),
     ),
+    column("powertrain", "Powertrain (combustion, hybrid, electric)", "powertrain", [
+      "powertrain",
+      "drivetrain type",
+      "propulsion",
+      "fuel type",
+      "hybrid",
+      "electrified",
+    ]),
   ],
 };
 

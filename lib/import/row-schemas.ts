@@ -14,6 +14,7 @@
 import { z } from "zod";
 import type { ImportKind } from "@/db/schema/operations";
 import { FAULT_STATUSES, SYMPTOMS } from "@/db/schema/records";
+import { POWERTRAINS } from "@/db/schema/catalogue";
 import { DISTANCE_UNITS } from "./values";
 
 export const MIN_MODEL_YEAR = 1980;
@@ -161,6 +162,7 @@ export function buildRowSchemas(maxDate: string) {
       generation: text(60),
       yearFrom: MODEL_YEAR,
       yearTo: MODEL_YEAR,
+      powertrain: z.enum(POWERTRAINS).nullable(),
     })
     .refine((r) => r.yearTo >= r.yearFrom, {
       error: (issue) => `is before year_from (${(issue.input as { yearFrom: number }).yearFrom})`,

@@ -20,6 +20,7 @@
 import type { z } from "zod";
 import type { ImportKind } from "@/db/schema/operations";
 import type { FaultStatus, Symptom } from "@/db/schema/records";
+import type { Powertrain } from "@/db/schema/catalogue";
 import { parseDtc, splitDtcList } from "@/lib/dtc";
 import { checkVin } from "@/lib/vin";
 import type { ColumnMapping } from "./mapping";
@@ -147,6 +148,26 @@ const FAULT_STATUS_WORDS: ReadonlyMap<string, FaultStatus> = new Map([
   ["permanent", "permanent"],
   ["perm", "permanent"],
 ]);
+
+const POWERTRAIN_WORDS: ReadonlyMap<string, Powertrain> = new Map([
+  ["combustion", "combustion"],
+  ["ice", "combustion"],
+  ["petrol", "combustion"],
+  ["gasoline", "combustion"],
+  ["diesel", "combustion"],
+  ["hybrid", "hybrid"],
+  ["hev", "hybrid"],
+  ["phev", "hybrid"],
+  ["mhev", "hybrid"],
+  ["plug-in hybrid", "hybrid"],
+  ["mild hybrid", "hybrid"],
+  ["electric", "electric"],
+  ["ev", "electric"],
+  ["bev", "electric"],
+  ["battery electric", "electric"],
+]);
+const powertrain = (cell: string): Powertrain | null =>
+  POWERTRAIN_WORDS.get(cell.trim().toLowerCase()) ?? null;
 
 const dtcCode = (cell: string): string | null => parseDtc(cell)?.code ?? null;
 const faultStatus = (cell: string): FaultStatus | null =>
@@ -414,6 +435,10 @@ class RowScratch {
     );
   }
 
+  powertrain(col: Col): Powertrain | null {
+    return this.read(col, powertrain, "is not combustion, hybrid or electric");
+  }
+
   status(col: Col): FaultStatus {
     const status = this.read(col, faultStatus, "is not pending, confirmed or permanent");
     return status ?? "confirmed";
@@ -595,13 +620,21 @@ const BUILDERS: {
     });
   },
   generations(mapping, s) {
-    const c = columnsOf(mapping, ["make", "model", "generation", "year_from", "year_to"]);
+    const c = columnsOf(mapping, [
+      "make",
+      "model",
+      "generation",
+      "year_from",
+      "year_to",
+      "powertrain",
+    ]);
     return (): GenerationRow => ({
       make: s.text(c.make) as string,
       model: s.text(c.model) as string,
       generation: s.text(c.generation) as string,
       yearFrom: s.year(c.year_from) as number,
       yearTo: s.year(c.year_to) as number,
+      powertrain: s.powertrain(c.powertrain),
     });
   },
 };

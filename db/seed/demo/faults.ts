@@ -79,6 +79,7 @@ export const PART_UNIT_CENTS: Readonly<Record<ComponentSlug, number>> = {
   "transmission/shift-solenoids": 24000,
   "transmission/speed-sensors": 6800,
   "transmission/drive-axles": 14500,
+  "transmission/clutch": 32000,
   "brakes/front-pads": 5400,
   "brakes/discs": 6900,
   "brakes/rear-brakes": 4800,
@@ -93,6 +94,9 @@ export const PART_UNIT_CENTS: Readonly<Record<ComponentSlug, number>> = {
   "suspension/anti-roll-links": 2900,
   "suspension/control-arms": 9400,
   "suspension/wheel-bearings": 8800,
+  "tyres-wheels/tyres": 11500,
+  "tyres-wheels/rotation": 0,
+  "tyres-wheels/alignment": 0,
   "exhaust/catalyst": 52000,
   "exhaust/flex-pipe": 7800,
   "exhaust/silencer": 12600,
@@ -101,10 +105,13 @@ export const PART_UNIT_CENTS: Readonly<Record<ComponentSlug, number>> = {
   "hvac/cabin-filter": 1700,
   "body-electrical/exterior-lamps": 1200,
   "body-electrical/wipers": 1500,
+  "body-electrical/wiper-motor": 9900,
   "body-electrical/door-locks": 7400,
   "body-electrical/windows": 9600,
   "network/data-bus": 2200,
   "restraints/airbag-system": 31000,
+  "restraints/clock-spring": 12400,
+  "inspection/scheduled-inspection": 0,
 };
 
 /**

@@ -37,6 +37,8 @@ import {
   users,
   vehicles,
 } from "@/db/schema";
+import { isScheduledWork, lineKind, type ComponentKind } from "@/lib/component-kinds";
+import { COMPONENTS } from "../reference";
 import { DEMO_ACCOUNTS, DEMO_ORG_SLUGS } from "./accounts";
 import { DEMO_START } from "./calendar";
 import type { DemoOrganisation } from "./types";
@@ -49,6 +51,11 @@ import type { DemoOrganisation } from "./types";
 
 /** Rows per INSERT: about 8,000 parameters for the widest table, well under SQLite's limit. */
 const CHUNK_ROWS = 400;
+
+/** Recurra's default kind of each component, by slug. */
+const DEFAULT_KIND: ReadonlyMap<string, ComponentKind> = new Map(
+  COMPONENTS.map((c) => [c.slug, c.kind]),
+);
 
 /** Writes rows a chunk at a time and collects what each chunk's RETURNING gave back. */
 async function insertInChunks<Row, Result = never>(
@@ -159,27 +166,41 @@ export async function insertDemoOrganisation(
   const lineRows = org.repairOrders.flatMap((o) => {
     const repairOrderId = requireId(orderIds, o.roNumber, "repair order");
     const vehicleId = vehicleOf(o.vin);
-    return o.lines.map((l) => ({
-      organisationId,
-      repairOrderId,
-      vehicleId,
-      lineNo: l.lineNo,
-      openedOn: o.openedOn,
-      odometerMi: o.odometerMi,
-      complaint: l.complaint,
-      cause: l.cause,
-      correction: l.correction,
-      dtcCodes: l.dtcCodes.length > 0 ? l.dtcCodes.join(" ") : null,
-      componentId: componentOf(l.componentSlug),
-      symptom: l.symptom,
-      laborHours: l.laborHours,
-      partsCostCents: l.partsCostCents,
-      laborCostCents: l.laborCostCents,
-      partNumbers: l.partNumbers.length > 0 ? l.partNumbers.join(" ") : null,
-      technician: l.technician,
-      vendor: l.vendor,
-      isWarranty: l.isWarranty,
-    }));
+    return o.lines.map((l) => {
+      // Classified as an import classifies it (a new organisation has Recurra's default kinds).
+      const isScheduled = isScheduledWork({
+        complaint: l.complaint,
+        cause: l.cause,
+        correction: l.correction,
+        hasDtc: l.dtcCodes.length > 0,
+      });
+      return {
+        organisationId,
+        repairOrderId,
+        vehicleId,
+        lineNo: l.lineNo,
+        openedOn: o.openedOn,
+        odometerMi: o.odometerMi,
+        complaint: l.complaint,
+        cause: l.cause,
+        correction: l.correction,
+        dtcCodes: l.dtcCodes.length > 0 ? l.dtcCodes.join(" ") : null,
+        componentId: componentOf(l.componentSlug),
+        symptom: l.symptom,
+        laborHours: l.laborHours,
+        partsCostCents: l.partsCostCents,
+        laborCostCents: l.laborCostCents,
+        partNumbers: l.partNumbers.length > 0 ? l.partNumbers.join(" ") : null,
+        technician: l.technician,
+        vendor: l.vendor,
+        isWarranty: l.isWarranty,
+        isScheduled,
+        kind: lineKind(
+          l.componentSlug ? (DEFAULT_KIND.get(l.componentSlug) ?? null) : null,
+          isScheduled,
+        ),
+      };
+    });
   });
   const insertedLines = await insertInChunks(lineRows, (chunk) =>
     tx.insert(repairLines).values(chunk).returning({

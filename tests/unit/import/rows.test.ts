@@ -484,6 +484,25 @@ describe("parts and generations", () => {
       generation: "K2",
       yearFrom: 2014,
       yearTo: 2019,
+      powertrain: null,
+    });
+    const withPowertrain = readerFor("generations", [
+      "Make",
+      "Model",
+      "Generation",
+      "Year From",
+      "Year To",
+      "Powertrain",
+    ]);
+    expect(
+      rowOf(withPowertrain(["Aurel", "Kestrel", "K3h", "2021", "2025", "Hybrid"], 2)),
+    ).toMatchObject({
+      powertrain: "hybrid",
+    });
+    expect(
+      rowOf(withPowertrain(["Aurel", "Kestrel", "K3e", "2021", "2025", "BEV"], 2)),
+    ).toMatchObject({
+      powertrain: "electric",
     });
     expect(messages(issuesOf(read(["Aurel", "Kestrel", "K2", "2019", "2014"], 2)))).toEqual([
       "year_to: 2014 is before year_from (2019)",

@@ -65,11 +65,11 @@ describe("filtered views of the cells", () => {
       expect(Math.abs(a.exposure + b.exposure - w.exposure)).toBeLessThan(1);
       events += a.events;
     }
-    // The early view counts exactly the repair lines opened by then (with a band and a fault).
+    // The early view counts exactly the failure lines opened by then (with a band and a fault).
     const [n] = await rows<{ n: number }>(
       db,
       `select count(*) as n from repair_lines where organisation_id = ? and opened_on <= '2024-06-30'
-          and odometer_mi is not null and (component_id is not null or dtc_codes is not null)`,
+          and odometer_mi is not null and kind = 'failure' and (component_id is not null or dtc_codes is not null)`,
       [scope.organisationId],
     );
     expect(events).toBe(n?.n);
@@ -80,7 +80,7 @@ describe("filtered views of the cells", () => {
     const [top] = await rows<{ vendor: string; n: number }>(
       db,
       `select vendor, count(*) as n from repair_lines where organisation_id = ? and vendor is not null
-          and odometer_mi is not null and (component_id is not null or dtc_codes is not null)
+          and odometer_mi is not null and kind = 'failure' and (component_id is not null or dtc_codes is not null)
         group by vendor order by n desc limit 1`,
       [scope.organisationId],
     );

@@ -25,6 +25,7 @@ function inputs(
     miles: number;
     vehicles: number;
     affected?: number;
+    kind?: "failure" | "wear";
   }[],
 ) {
   const cohorts = new Map<string, Cohort>();
@@ -41,6 +42,7 @@ function inputs(
         cohortKey: co.key,
         band: c.band,
         faultKey: c.fault,
+        kind: c.kind ?? "failure",
         dtc: c.fault.startsWith("dtc:") ? c.fault.slice(4) : null,
         componentId: null,
         events: c.events,
@@ -208,5 +210,49 @@ describe("computeCells", () => {
     const direct = rateRatio(7, 50_000, 4, 50_000);
     expect(b.rateRatio).toBeCloseTo(direct.ratio, 12);
     expect(b.pValue).toBeCloseTo(direct.pValue, 12);
+  });
+
+  test("failure and wear cells are separate false-discovery families: wear cells never move a failure q", () => {
+    const failures = [
+      { label: "A", band: 0, fault: "component:x/fails", events: 12, miles: 30_000, vehicles: 9 },
+      { label: "B", band: 0, fault: "component:x/fails", events: 4, miles: 60_000, vehicles: 9 },
+      { label: "A", band: 0, fault: "component:x/other", events: 3, miles: 30_000, vehicles: 9 },
+      { label: "B", band: 0, fault: "component:x/other", events: 5, miles: 60_000, vehicles: 9 },
+    ];
+    const wear = [
+      {
+        label: "A",
+        band: 0,
+        fault: "component:brakes/front-pads",
+        events: 30,
+        miles: 30_000,
+        vehicles: 9,
+        kind: "wear" as const,
+      },
+      {
+        label: "B",
+        band: 0,
+        fault: "component:brakes/front-pads",
+        events: 10,
+        miles: 60_000,
+        vehicles: 9,
+        kind: "wear" as const,
+      },
+    ];
+    const settings = { bandWidthMi: 25_000, confidence: 0.95, minExposureMi: 1_000 };
+    const alone = computeCells({ ...inputs(failures), ...settings });
+    const both = computeCells({ ...inputs([...failures, ...wear]), ...settings });
+    const q = (cells: typeof alone, fault: string) =>
+      cells.find((c) => c.cohort.label === "A" && c.faultKey === fault)!.qValue;
+    expect(q(both, "component:x/fails")).toBe(q(alone, "component:x/fails"));
+    expect(q(both, "component:x/other")).toBe(q(alone, "component:x/other"));
+    const pads = both.find((c) => c.cohort.label === "A" && c.faultKey.includes("pads"))!;
+    expect(pads.kind).toBe("wear");
+    // Two wear cells tested: q is the BH adjustment of the two p-values (min(2p₁, p₂) for the smaller).
+    const wearP = both.filter((c) => c.kind === "wear").map((c) => c.pValue!);
+    expect(pads.qValue).toBeCloseTo(Math.min(1, Math.min(...wearP) * 2, Math.max(...wearP)), 12);
+    expect(
+      both.filter((c) => c.kind === "failure").every((c) => !c.faultKey.includes("pads")),
+    ).toBe(true);
   });
 });

@@ -22,9 +22,38 @@ const REQUIRED_CODES = [
 ];
 
 describe("component list", () => {
-  it("has about 40–60 entries with unique, well-formed slugs", () => {
+  it("gives every component a kind, with the trade's scheduled service and wear items marked (common practice)", () => {
+    const kindOf = new Map(COMPONENTS.map((c) => [c.slug, c.kind]));
+    for (const slug of [
+      "engine-mechanical/oil-service",
+      "engine-mechanical/air-filter",
+      "hvac/cabin-filter",
+      "transmission/fluid-service",
+      "brakes/brake-fluid",
+      "cooling/coolant",
+      "tyres-wheels/rotation",
+      "inspection/scheduled-inspection",
+    ])
+      expect(kindOf.get(slug as never), slug).toBe("service");
+    for (const slug of [
+      "brakes/front-pads",
+      "brakes/discs",
+      "body-electrical/wipers",
+      "tyres-wheels/tyres",
+      "transmission/clutch",
+    ])
+      expect(kindOf.get(slug as never), slug).toBe("wear");
+    for (const slug of [
+      "fuel-vapour/purge-valve",
+      "power-distribution/body-ground",
+      "steering/assist-sensor",
+    ])
+      expect(kindOf.get(slug as never), slug).toBe("failure");
+  });
+
+  it("has about 40–75 entries with unique, well-formed slugs", () => {
     expect(COMPONENTS.length).toBeGreaterThanOrEqual(40);
-    expect(COMPONENTS.length).toBeLessThanOrEqual(62);
+    expect(COMPONENTS.length).toBeLessThanOrEqual(75);
     const slugs = COMPONENTS.map((c) => c.slug);
     expect(new Set(slugs).size).toBe(slugs.length);
     for (const c of COMPONENTS) expect(c.slug).toMatch(/^[a-z-]+\/[a-z-]+$/);
