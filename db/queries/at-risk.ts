@@ -190,12 +190,14 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
       from cell_stats c
       left join dtc_codes d on d.code = c.dtc
       left join components k on k.id = c.component_id
-     where c.organisation_id = ${scope.organisationId} and c.is_signal = 1 and c.fault_key <> 'all'`);
+     where c.organisation_id = ${scope.organisationId} and c.is_signal = 1 and c.kind = 'failure'
+       and c.fault_key <> 'all'`);
   for (const c of signalCells) {
+    // The cell's own lines: failure lines of its component or DTC (never scheduled service).
     const fixes = (line: string) =>
       c.component_id !== null
-        ? sql.raw(`${line}.component_id = ${Number(c.component_id)}`)
-        : sql`exists (select 1 from visible_repair_line_codes rc where rc.repair_line_id = ${sql.raw(`${line}.id`)} and rc.dtc = ${c.dtc})`;
+        ? sql.raw(`${line}.kind = 'failure' and ${line}.component_id = ${Number(c.component_id)}`)
+        : sql`${sql.raw(line)}.kind = 'failure' and exists (select 1 from visible_repair_line_codes rc where rc.repair_line_id = ${sql.raw(`${line}.id`)} and rc.dtc = ${c.dtc})`;
     const cohort = sql`v.make = ${c.make} and v.model = ${c.model}
       and coalesce((select label from generations g where g.id = v.generation_id), cast(v.model_year as text)) = ${c.label}`;
     const [cost] = await db.all<{ avg: number | null }>(sql`

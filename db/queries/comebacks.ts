@@ -55,7 +55,7 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
       from visible_repair_lines rl
       join visible_repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
       left join components k on k.id = rl.component_id
-     where rl.organisation_id = ${scope.organisationId} and rl.id > ${after}
+     where rl.organisation_id = ${scope.organisationId} and rl.kind = 'failure' and rl.id > ${after}
      order by rl.id limit ${PAGE}`);
     rows.push(...page);
     if (page.length < PAGE) break;

@@ -26,7 +26,10 @@ function cohortSql(issue: IssueScope): SQL {
   )})`;
 }
 
-/** Repair lines (alias l) that fix the issue's fault: one of its DTCs or its component. */
+/**
+ * Repair lines (alias l) that fix the issue's fault: one of its DTCs or its component, never a
+ * scheduled-service line (a part replaced by the schedule is not a repair of the fault).
+ */
 export function faultSql(issue: Pick<IssueScope, "dtcCodes" | "component">): SQL {
   const parts: SQL[] = [];
   if (issue.dtcCodes.length > 0) {
@@ -41,7 +44,7 @@ export function faultSql(issue: Pick<IssueScope, "dtcCodes" | "component">): SQL
       sql`l.component_id = (select id from components where slug = ${issue.component.slug})`,
     );
   }
-  return parts.length ? sql`(${sql.join(parts, sql` or `)})` : sql`0`;
+  return parts.length ? sql`(l.kind <> 'service' and (${sql.join(parts, sql` or `)}))` : sql`0`;
 }
 
 export type EvidenceCell = {

@@ -262,7 +262,8 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
   const band = odometerMi === null ? null : mileageBand(odometerMi, settings.bandWidthMi);
   const cohortLabel = vehicle.generation ?? String(vehicle.modelYear);
 
-  // Every repair line of the cohort, with its codes: the shares, fixes and comebacks read these.
+  // Every failure line of the cohort, with its codes: the shares, fixes and comebacks read these
+  // (scheduled service and wear are not causes of a complaint: lib/component-kinds.ts).
   const rows = await db.all<Record<string, unknown>>(sql`
     select l.id, l.vehicle_id, l.opened_on, l.odometer_mi, k.slug as component, l.symptom,
            l.labor_hours, l.part_numbers, l.correction,
@@ -272,7 +273,8 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
       from visible_repair_lines l
       join vehicles v on v.id = l.vehicle_id
       left join components k on k.id = l.component_id
-     where l.organisation_id = ${scope.organisationId} and v.organisation_id = ${org} and ${cohortSql(vehicle)}`);
+     where l.organisation_id = ${scope.organisationId} and v.organisation_id = ${org} and l.kind = 'failure'
+       and ${cohortSql(vehicle)}`);
   const lines: LookupLine[] = rows.map((r) => ({
     id: Number(r.id),
     vehicleId: Number(r.vehicle_id),
@@ -334,7 +336,7 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
           from cell_stats c left join components k on k.id = c.component_id
          where c.organisation_id = ${scope.organisationId} and c.make = ${vehicle.make}
            and c.model = ${vehicle.model} and c.cohort_label = ${cohortLabel}
-           and c.band_index = ${band.index} and c.fault_key <> 'all'`)
+           and c.band_index = ${band.index} and c.kind = 'failure' and c.fault_key <> 'all'`)
     : [];
   const cells = cellRows.map((r) => ({
     faultKey: String(r.fault_key),

@@ -126,7 +126,7 @@ export async function getRefuelAnalysis(
            coalesce(min(rl.odometer_mi), ro.odometer_mi) as odometer_mi, min(rl.symptom) as symptom
       from visible_repair_lines rl
       join visible_repair_orders ro on ro.id = rl.repair_order_id and ro.organisation_id = ${scope.organisationId}
-     where rl.organisation_id = ${scope.organisationId} and rl.symptom in (${symptomList})
+     where rl.organisation_id = ${scope.organisationId} and rl.kind = 'failure' and rl.symptom in (${symptomList})
      group by rl.repair_order_id
      order by rl.vehicle_id, opened_on`);
   const fills = await db.all<{ vehicle_id: number; odometer_mi: number }>(sql`

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, gt, ne, or, sql } from "drizzle-orm";
+import { and, asc, desc, eq, gt, notInArray, or, sql } from "drizzle-orm";
 import type { SQLiteColumn } from "drizzle-orm/sqlite-core";
 import type { Db } from "@/db";
 import {
@@ -467,6 +467,7 @@ async function listMatchedPatterns(
       bandFromMi: cellStats.bandFromMi,
       bandToMi: cellStats.bandToMi,
       faultKey: cellStats.faultKey,
+      kind: cellStats.kind,
       dtc: cellStats.dtc,
       dtcDescription: dtcCodes.description,
       componentId: cellStats.componentId,
@@ -497,7 +498,7 @@ async function listMatchedPatterns(
         eq(cellStats.make, vehicle.make),
         eq(cellStats.model, vehicle.model),
         eq(cellStats.cohortLabel, vehicle.cohortLabel),
-        ne(cellStats.faultKey, "all"),
+        notInArray(cellStats.faultKey, ["all", "all:wear"]),
         or(eq(cellStats.isSignal, true), gt(cellStats.ratioLower, 1)),
       ),
     );

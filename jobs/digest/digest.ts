@@ -73,6 +73,7 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
            (select band_width_mi from analysis_runs r where r.id = s.last_run_id) as band_width_mi
       from signals s
      where s.organisation_id = ${organisationId} and s.created_at >= ${sinceIso} and s.state <> 'dismissed'
+       and s.kind = 'failure'
      order by s.ratio_lower desc limit 20`);
   const states = await db.all<{
     title: string;

@@ -207,12 +207,13 @@ describe("the lookup on the demo", () => {
     );
     expect(north!.found && tide!.found).toBe(true);
     if (!north!.found || !tide!.found) return;
-    // No odometer: no band, so every repair line of the cohort counts. An independent count
-    // per organisation, over its own vehicles of that cohort (generation, else model year).
+    // No odometer: no band, so every failure line of the cohort counts (never scheduled
+    // service or wear). An independent count per organisation, over its own vehicles of that
+    // cohort (generation, else model year).
     const cohortLines = async (org: number, generationId: number | null) => {
       const [n] = await db.all<{ n: number }>(sql`
         select count(*) as n from repair_lines l join vehicles v on v.id = l.vehicle_id
-         where l.organisation_id = ${org} and v.organisation_id = ${org}
+         where l.organisation_id = ${org} and v.organisation_id = ${org} and l.kind = 'failure'
            and v.make = 'Aurel' and v.model = 'Kestrel'
            and ${generationId === null ? sql`v.generation_id is null and v.model_year = ${walkIn.year}` : sql`v.generation_id = ${generationId}`}`);
       return Number(n!.n);
