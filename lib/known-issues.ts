@@ -43,12 +43,21 @@ export function canChangeState(from: KnownIssueState, to: KnownIssueState): bool
 
 /**
  * The maintained caution list: the usual precautions of the trade (common practice), written in
- * Recurra's words. They never replace the manufacturer's procedure.
+ * Recurra's words. They never replace the manufacturer's procedure, local codes or licensed
+ * practice.
  */
 export const CAUTIONS: Record<CautionKind, { title: string; text: string }> = {
   electrical: {
     title: "Electrical",
-    text: "Disconnect the battery negative before working on fuses, grounds or high-current connections; never bridge a fuse; check the circuit's rating before replacing a fuse.",
+    text: "Disconnect the battery negative before unplugging sensors, modules, grounds or wiring, and wait as the manufacturer states for modules to power down; probe connectors from the back with the right adapters, never by forcing pins.",
+  },
+  fuses: {
+    title: "Fuses",
+    text: "Never bridge a fuse or fit a larger one: a fuse that blows again points to a fault in its circuit; check the circuit's rating before replacing it, with the battery disconnected for high-current fuses.",
+  },
+  battery: {
+    title: "Battery",
+    text: "Batteries give off hydrogen and hold acid: no sparks or flames near them, eye protection on; disconnect the negative first and connect it last.",
   },
   "fuel-vapour": {
     title: "Fuel vapour",
@@ -56,7 +65,7 @@ export const CAUTIONS: Record<CautionKind, { title: string; text: string }> = {
   },
   "airbag-srs": {
     title: "Airbag / SRS",
-    text: "Disable the restraint system per the manufacturer's procedure and wait the stated time before touching airbag or seat-belt pretensioner wiring; never probe SRS connectors.",
+    text: "Disable the restraint system per the manufacturer's procedure and wait the stated time before removing the steering wheel, clock spring or any airbag or pretensioner part; never probe SRS connectors; keep a removed airbag face up.",
   },
   steering: {
     title: "Steering",
@@ -66,14 +75,30 @@ export const CAUTIONS: Record<CautionKind, { title: string; text: string }> = {
     title: "Lifting",
     text: "Use the vehicle's lifting points and rated equipment; never work under a vehicle held only by a jack; chock the wheels.",
   },
+  "hot-parts": {
+    title: "Hot oil, coolant and exhaust",
+    text: "Let the engine cool: hot oil, transmission fluid and exhaust parts burn, and a hot cooling system is under pressure: never open it hot. Collect used fluids for proper disposal.",
+  },
+  "brake-dust": {
+    title: "Brake dust",
+    text: "Do not blow brake dust off with compressed air: clean with a wet method or a brake cleaner and wear a mask; brake fluid harms skin, eyes and paint.",
+  },
+  springs: {
+    title: "Springs under load",
+    text: "Coil springs store energy: compress them only with a rated spring compressor and keep hands out of its path, as the manufacturer describes.",
+  },
+  refrigerant: {
+    title: "Refrigerant",
+    text: "Air-con refrigerant must be recovered with the proper equipment by certified people, as local rules require; it freezes skin and eyes on contact.",
+  },
   "high-voltage": {
     title: "High voltage",
-    text: "Orange cables and marked parts carry high voltage: only trained and authorised people isolate the system, with insulated tools and PPE, following the manufacturer's procedure.",
+    text: "This vehicle has a high-voltage system: orange cables and marked parts can kill. Only trained and authorised people isolate it, with insulated tools and PPE, following the manufacturer's procedure, before any work near it.",
   },
   other: { title: "Other", text: "" },
 };
 
-/** Cautions that come with a component's system when no known issue names them (common practice). */
+/** Cautions of a component's system, where its own are not listed (common practice). */
 const SYSTEM_CAUTIONS: Record<string, CautionKind[]> = {
   "fuel-vapour": ["fuel-vapour"],
   "fuel-delivery": ["fuel-vapour", "electrical"],
@@ -82,19 +107,79 @@ const SYSTEM_CAUTIONS: Record<string, CautionKind[]> = {
   "body-electrical": ["electrical"],
   ignition: ["electrical"],
   "engine-management": ["electrical"],
+  "engine-mechanical": ["hot-parts", "lifting"],
+  cooling: ["hot-parts"],
   network: ["electrical"],
   restraints: ["airbag-srs", "electrical"],
   steering: ["steering", "lifting"],
   suspension: ["lifting"],
-  brakes: ["lifting"],
-  transmission: ["lifting"],
-  exhaust: ["lifting"],
+  brakes: ["brake-dust", "lifting"],
+  transmission: ["hot-parts", "lifting"],
+  exhaust: ["hot-parts", "lifting"],
+  hvac: ["electrical"],
+  "tyres-wheels": ["lifting"],
+};
+
+/** A component's own cautions where they differ from its system's (common practice). */
+const COMPONENT_CAUTIONS: Record<string, CautionKind[]> = {
+  "power-distribution/main-fuse": ["electrical", "fuses"],
+  "power-distribution/accessory-fuses": ["electrical", "fuses"],
+  "power-distribution/relays": ["electrical", "fuses"],
+  "starting-charging/battery": ["battery", "electrical"],
+  "starting-charging/battery-cables": ["battery", "electrical"],
+  "starting-charging/starter": ["battery", "electrical", "lifting"],
+  "starting-charging/alternator": ["battery", "electrical"],
+  "engine-mechanical/oil-service": ["hot-parts", "lifting"],
+  "engine-mechanical/air-filter": [],
+  "engine-mechanical/valve-cover-gasket": ["hot-parts"],
+  "engine-mechanical/drive-belt": ["hot-parts", "battery"],
+  "hvac/compressor": ["refrigerant", "electrical"],
+  "hvac/cabin-filter": [],
+  "suspension/struts": ["springs", "lifting"],
+  "steering/assist-sensor": ["steering", "electrical"],
+  "steering/assist-module": ["steering", "electrical"],
+  "brakes/brake-fluid": ["brake-dust", "lifting"],
+  "brakes/wheel-speed-sensors": ["electrical", "lifting"],
+  "transmission/shift-solenoids": ["hot-parts", "electrical", "lifting"],
+  "transmission/speed-sensors": ["electrical", "lifting"],
+  "restraints/clock-spring": ["airbag-srs", "electrical"],
+  "inspection/scheduled-inspection": ["lifting"],
 };
 
 /** The caution kinds that go with a component slug such as "fuel-vapour/purge-valve". */
 export function cautionsForComponent(slug: string | null | undefined): CautionKind[] {
   if (!slug) return [];
-  return SYSTEM_CAUTIONS[slug.split("/")[0] ?? ""] ?? [];
+  return COMPONENT_CAUTIONS[slug] ?? SYSTEM_CAUTIONS[slug.split("/")[0] ?? ""] ?? [];
+}
+
+const HIGH_VOLTAGE_WORDS = /\b(hybrid|phev|hev|bev|ev|electric|e-motor|plug-in)\b/i;
+
+/**
+ * Whether a vehicle carries a high-voltage system: its generation in the catalogue says hybrid
+ * or electric, or its engine description does ("2.0 hybrid", "EV", "electric").
+ */
+export function isHighVoltageVehicle(v: {
+  powertrain?: string | null;
+  engine?: string | null;
+}): boolean {
+  if (v.powertrain === "hybrid" || v.powertrain === "electric") return true;
+  return v.engine ? HIGH_VOLTAGE_WORDS.test(v.engine) : false;
+}
+
+/**
+ * The cautions to show for work on a vehicle: the given kinds (a known issue's or a
+ * component's), with high voltage first when the vehicle has a high-voltage system.
+ */
+export function cautionsForWork(
+  kinds: readonly CautionKind[],
+  vehicle: { isHighVoltage: boolean },
+): { kind: CautionKind; title: string; text: string }[] {
+  const all: CautionKind[] = vehicle.isHighVoltage
+    ? ["high-voltage", ...kinds.filter((k) => k !== "high-voltage")]
+    : [...kinds];
+  return [...new Set(all)]
+    .filter((k) => k !== "other")
+    .map((kind) => ({ kind, ...CAUTIONS[kind] }));
 }
 
 export const SYMPTOM_LABELS: Record<(typeof SYMPTOMS)[number], string> = {

@@ -6,9 +6,9 @@ export function SafetyNote() {
       className="rounded-md border border-ochre-500/40 bg-ochre-100 px-4 py-3 text-sm text-ink"
     >
       <strong>Safety.</strong> Repair information in Recurra is informational. Manufacturer
-      procedures, local codes and licensed practice come first. Wear eye and hand protection; take
-      the cautions shown for electrical, fuel-vapour, airbag, steering, lifting and high-voltage
-      work seriously.
+      procedures, local codes and licensed practice come first. Wear eye and hand protection, and
+      take the cautions shown with each job seriously: electrical and fuel-vapour work, airbags,
+      steering, lifting, hot fluids and high voltage on hybrid and electric vehicles.
     </p>
   );
 }

@@ -23,7 +23,13 @@ import {
   vehicles,
   type KnownIssueState,
 } from "@/db/schema";
-import { CAUTIONS, canChangeState, STATE_LABELS, type KnownIssueInput } from "@/lib/known-issues";
+import {
+  CAUTIONS,
+  isHighVoltageVehicle,
+  canChangeState,
+  STATE_LABELS,
+  type KnownIssueInput,
+} from "@/lib/known-issues";
 import { getConfiguredBaseUrl } from "@/lib/env";
 import { unitToMiles } from "@/lib/units";
 import { findUserName } from "./accounts";
@@ -149,6 +155,7 @@ export async function getKnownIssue(db: Db, scope: OrgScope, id: number) {
           generation: generations.label,
           yearFrom: generations.yearFrom,
           yearTo: generations.yearTo,
+          powertrain: generations.powertrain,
         })
         .from(knownIssueCohorts)
         .leftJoin(generations, eq(generations.id, knownIssueCohorts.generationId))
@@ -265,7 +272,14 @@ export async function getKnownIssue(db: Db, scope: OrgScope, id: number) {
     updatedAt: i.updatedAt,
     cohorts,
     checks: checks.map((c) => c.text),
-    cautions: cautions.map((c) => ({
+    // High voltage first whenever a cohort's generation is hybrid or electric, chosen or not.
+    cautions: [
+      ...(cohorts.some((c) => isHighVoltageVehicle(c)) &&
+      !cautions.some((c) => c.kind === "high-voltage")
+        ? [{ kind: "high-voltage" as const, text: null }]
+        : []),
+      ...cautions,
+    ].map((c) => ({
       kind: c.kind,
       title: CAUTIONS[c.kind].title,
       text: c.kind === "other" ? (c.text ?? "") : (c.text ?? CAUTIONS[c.kind].text),

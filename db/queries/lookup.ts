@@ -17,8 +17,9 @@ import { enqueueJob } from "@/jobs/queue";
 import { lineKind } from "@/lib/component-kinds";
 import { getComponentKind } from "./component-kinds";
 import {
-  CAUTIONS,
   cautionsForComponent,
+  cautionsForWork,
+  isHighVoltageVehicle,
   parseDtcList,
   SYMPTOM_LABELS,
   type FindingInput,
@@ -85,6 +86,8 @@ export type LookupVehicle = {
   generation: string | null;
   lastOdometerMi: number | null;
   lastOdometerOn: string | null;
+  /** Hybrid or electric by its catalogue generation or its engine: high-voltage cautions. */
+  isHighVoltage: boolean;
 };
 
 /**
@@ -103,7 +106,7 @@ export async function findLookupVehicle(
   if (conds.length === 0) return null;
   const rows = await db.all<Record<string, unknown>>(sql`
     select v.id, v.vin, v.unit_number, v.make, v.model, v.model_year, v.generation_id, g.label as generation,
-           v.last_odometer_mi, v.last_odometer_on
+           v.last_odometer_mi, v.last_odometer_on, v.engine, g.powertrain
       from vehicles v left join generations g on g.id = v.generation_id
      where v.organisation_id = ${scope.organisationId} and (${sql.join(conds, sql` or `)})
      order by case when ${by.vin ? sql`v.vin = ${normaliseVin(by.vin)}` : sql`0`} then 0 else 1 end
@@ -121,6 +124,10 @@ export async function findLookupVehicle(
     generation: r.generation === null ? null : String(r.generation),
     lastOdometerMi: num(r.last_odometer_mi),
     lastOdometerOn: r.last_odometer_on === null ? null : String(r.last_odometer_on),
+    isHighVoltage: isHighVoltageVehicle({
+      powertrain: r.powertrain === null ? null : String(r.powertrain),
+      engine: r.engine === null ? null : String(r.engine),
+    }),
   };
 }
 
@@ -150,8 +157,8 @@ export async function walkInVehicle(
        where organisation_id = ${org} and make = ${make} collate nocase and model = ${model} collate nocase)
      order by n desc limit 1`);
   if (!named) return null;
-  const [generation] = await db.all<{ id: number; label: string }>(sql`
-    select id, label from generations
+  const [generation] = await db.all<{ id: number; label: string; powertrain: string | null }>(sql`
+    select id, label, powertrain from generations
      where organisation_id = ${org} and make = ${named.make} collate nocase
        and model = ${named.model} collate nocase and ${by.year} between year_from and year_to
      order by year_from desc limit 1`);
@@ -166,6 +173,7 @@ export async function walkInVehicle(
     generation: generation ? String(generation.label) : null,
     lastOdometerMi: null,
     lastOdometerOn: null,
+    isHighVoltage: isHighVoltageVehicle({ powertrain: generation?.powertrain ?? null }),
   };
 }
 
@@ -426,7 +434,10 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
           source: "known-issue" as const,
         },
         fixSuccess: success,
-        cautions: d.cautions,
+        cautions: cautionsForWork(
+          d.cautions.filter((k) => k.kind !== "other").map((k) => k.kind),
+          vehicle,
+        ).concat(d.cautions.filter((k) => k.kind === "other")),
         cell: cellOut,
       };
     }
@@ -448,11 +459,7 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
         source: "records" as const,
       },
       fixSuccess: success,
-      cautions: cautionsForComponent(c.fault.component).map((kind) => ({
-        kind,
-        title: CAUTIONS[kind].title,
-        text: CAUTIONS[kind].text,
-      })),
+      cautions: cautionsForWork(cautionsForComponent(c.fault.component), vehicle),
       cell: cellOut,
     };
   });

@@ -5,6 +5,7 @@ import { meanCumulativeFunction } from "@/lib/stats";
 import { ensureCellView, hasViewFilter } from "./cell-views";
 import { ALL_FAULT_KEYS_SQL, cellSource } from "./cells";
 import { allFaultsKey, type AnalysedKind } from "@/lib/component-kinds";
+import { cautionsForComponent, cautionsForWork, isHighVoltageVehicle } from "@/lib/known-issues";
 import { assertCan, type OrgScope } from "./scope";
 
 /** A fault filter: "P0441" (DTC), "fuel-vapour/purge-valve" (component) or "fuel-vapour" (system). */
@@ -244,10 +245,12 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
       : sql`c.run_id`;
     const [row] = await db.all<Record<string, unknown>>(sql`
       select ${CELL_COLUMNS}, r.band_width_mi, r.confidence_level, r.finished_at,
-             k.name as component_name, k.system as component_system, d.description as dtc_description
+             k.name as component_name, k.system as component_system, d.description as dtc_description,
+             coalesce(k.slug, dk.slug) as caution_slug
         from ${source.table} c join analysis_runs r on r.id = ${run}
         left join components k on k.id = c.component_id
         left join dtc_codes d on d.code = c.dtc
+        left join components dk on dk.id = d.component_id
        where ${source.where} and c.make = ${key.make} and c.model = ${key.model}
          and c.cohort_label = ${key.generation} and c.band_index = ${key.band} and c.fault_key = ${fk}
        limit 1`);
@@ -280,8 +283,13 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
      where ${cellLines(scope, key, bandWidthMi)} and l.vendor is not null
      order by 1 limit 200`);
   // MCF over mileage for the cohort: each vehicle observed up to its last odometer reading.
-  const histories = await db.all<{ vehicle_id: number; end_mi: number | null }>(sql`
-    select v.id as vehicle_id, v.last_odometer_mi as end_mi
+  const histories = await db.all<{
+    vehicle_id: number;
+    end_mi: number | null;
+    engine: string | null;
+    powertrain: string | null;
+  }>(sql`
+    select v.id as vehicle_id, v.last_odometer_mi as end_mi, v.engine, g.powertrain
       from vehicles v left join generations g on g.id = v.generation_id
      where v.organisation_id = ${scope.organisationId} and v.make = ${key.make} and v.model = ${key.model}
        and coalesce(g.label, cast(v.model_year as text)) = ${key.generation}`);
@@ -337,8 +345,15 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
       : fk === "all:wear"
         ? "All wear"
         : "All faults";
+  // The cautions of the work this fault leads to: its component's (a DTC's usual component), and
+  // high voltage when any vehicle of the cohort is hybrid or electric.
+  const cautions = cautionsForWork(
+    cautionsForComponent(cellRow.caution_slug === null ? null : String(cellRow.caution_slug)),
+    { isHighVoltage: histories.some((h) => isHighVoltageVehicle(h)) },
+  );
   return {
     cell: toHeatCell(cellRow),
+    cautions,
     kind: (cellRow.kind === "wear" ? "wear" : "failure") as AnalysedKind,
     faultKey: fk,
     faultLabel,

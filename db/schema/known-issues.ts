@@ -11,10 +11,16 @@ export type KnownIssueState = (typeof KNOWN_ISSUE_STATES)[number];
 /** Maintained list of caution kinds shown with repair guidance. */
 export const CAUTION_KINDS = [
   "electrical",
+  "fuses",
+  "battery",
   "fuel-vapour",
   "airbag-srs",
   "steering",
   "lifting",
+  "hot-parts",
+  "brake-dust",
+  "springs",
+  "refrigerant",
   "high-voltage",
   "other",
 ] as const;

@@ -10,6 +10,7 @@ import { PrintButton } from "@/components/lookup/print-button";
 import { buttonClass, inputClass } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { CautionList } from "@/components/ui/caution-list";
 import { SafetyNote } from "@/components/ui/safety-note";
 import { getDb } from "@/db";
 import { getLookup, type CauseResult, type LookupResult } from "@/db/queries/lookup";
@@ -682,21 +683,9 @@ function CauseBlock({
           </p>
         </div>
       </div>
-      <div className="mt-3 print:mt-1" data-testid="cautions">
+      <div className="mt-3 print:mt-1">
         <h4 className="text-sm font-semibold">Cautions</h4>
-        {c.cautions.length > 0 ? (
-          <ul className="mt-1 space-y-1 text-sm">
-            {c.cautions.map((k) => (
-              <li key={`${k.kind}-${k.title}`} className="border-l-4 border-ochre-500 pl-2">
-                <strong>{k.title}:</strong> {k.text}
-              </li>
-            ))}
-          </ul>
-        ) : (
-          <p className="mt-1 text-sm">
-            No specific caution listed: the general safety note above applies.
-          </p>
-        )}
+        <CautionList cautions={c.cautions} className="mt-1" />
       </div>
       {recording && c.knownIssue ? (
         <KnownIssueFindingForm context={recording} knownIssueId={c.knownIssue.id} title={c.title} />

@@ -112,7 +112,7 @@ const KNOWN_ISSUES: DemoKnownIssue[] = [
     fix: "Replace the main fuse and, when heat-marked, its holder; tighten to the specified torque.",
     laborOperation: "Main fuse and holder, replace",
     typicalHours: 0.8,
-    cautions: ["electrical"],
+    cautions: ["electrical", "fuses"],
     watchers: ["admin@recurra.example", "manager@recurra.example"],
   },
   {
@@ -156,7 +156,7 @@ const KNOWN_ISSUES: DemoKnownIssue[] = [
     fix: "Repair the chafed wire, sleeve the loom and re-route it clear of the hinge; fit the correct fuse.",
     laborOperation: "Tailgate loom, repair and re-route",
     typicalHours: 1.1,
-    cautions: ["electrical"],
+    cautions: ["electrical", "fuses"],
     watchers: ["admin@recurra.example"],
   },
 ];

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { beforeAll, describe, expect, test } from "vitest";
 import type { Db } from "@/db";
 import { ensureCellView } from "@/db/queries/cell-views";
@@ -116,6 +117,34 @@ describe("getPatternOptions", () => {
 });
 
 describe("getCellDetail", () => {
+  test("a fuel-vapour fault's drill-down carries the fuel-vapour caution; a hybrid cohort adds high voltage", async () => {
+    const tide = scopes.tidewater!;
+    const map = await getHeatmap(db, tide, { view: "cohorts", fault: "P0496" });
+    const k2 = map.rows.find((r) => r.label === "Aurel Kestrel K2")!;
+    const cell = k2.cells.sort((a, b) => b.events - a.events)[0]!;
+    const key = {
+      make: "Aurel",
+      model: "Kestrel",
+      generation: "K2",
+      band: cell.band,
+      fault: "P0496",
+    };
+    const detail = await getCellDetail(db, tide, key);
+    // P0496's usual component is the purge valve (reference data), whose work is fuel-vapour work.
+    expect(detail!.cautions.map((c) => c.kind)).toEqual(["fuel-vapour"]);
+    await db.run(
+      sql`update generations set powertrain = 'hybrid' where organisation_id = ${tide.organisationId} and label = 'K2'`,
+    );
+    try {
+      const hybrid = await getCellDetail(db, tide, key);
+      expect(hybrid!.cautions.map((c) => c.kind)).toEqual(["high-voltage", "fuel-vapour"]);
+    } finally {
+      await db.run(
+        sql`update generations set powertrain = null where organisation_id = ${tide.organisationId} and label = 'K2'`,
+      );
+    }
+  });
+
   test("the drill-down's repair lines are the cell's events; totals add up", async () => {
     const tide = scopes.tidewater!;
     const map = await getHeatmap(db, tide, { view: "cohorts", fault: "P0730" });

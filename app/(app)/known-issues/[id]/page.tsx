@@ -11,6 +11,7 @@ import { StateBadge } from "@/components/known-issues/state-badge";
 import { buttonClass } from "@/components/ui/button";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
+import { CautionList } from "@/components/ui/caution-list";
 import { SafetyNote } from "@/components/ui/safety-note";
 import { getDb } from "@/db";
 import { getKnownIssueEvidence } from "@/db/queries/known-issue-evidence";
@@ -152,15 +153,7 @@ export default async function KnownIssuePage({ params }: { params: Promise<{ id:
             ) : null}
           </Panel>
           <Panel title="Cautions">
-            {issue.cautions.length > 0 ? (
-              <ul className="mb-3 space-y-2" data-testid="cautions">
-                {issue.cautions.map((c) => (
-                  <li key={c.kind} className="rounded-md border border-alarm-700/30 px-3 py-2">
-                    <strong>{c.title}.</strong> {c.text}
-                  </li>
-                ))}
-              </ul>
-            ) : null}
+            <CautionList cautions={issue.cautions} className="mb-3" />
             <SafetyNote />
           </Panel>
           {issue.references ? (

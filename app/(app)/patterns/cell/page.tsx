@@ -7,6 +7,7 @@ import { viewParams } from "@/components/patterns/query-strings";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { buttonClass, inputClass } from "@/components/ui/button";
+import { CautionList } from "@/components/ui/caution-list";
 import { SafetyNote } from "@/components/ui/safety-note";
 import {
   formatBand,
@@ -279,9 +280,10 @@ export default async function CellPage({ searchParams }: { searchParams: PageSea
           ) : null}
         </div>
       </Panel>
-      <div className="mt-4">
+      <Panel title="Cautions" className="mt-4">
+        <CautionList cautions={detail.cautions} className="mb-3" />
         <SafetyNote />
-      </div>
+      </Panel>
     </>
   );
 }
