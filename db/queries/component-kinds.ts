@@ -47,6 +47,25 @@ export async function listComponentKinds(
     .orderBy(asc(components.system), asc(components.name));
 }
 
+/** The organisation's repair lines per component and kind, for the settings screen. */
+export async function countLinesByComponent(
+  db: DbOrTx,
+  scope: OrgScope,
+): Promise<Map<number, Record<ComponentKind, number>>> {
+  assertCan(scope, "settings:manage");
+  const rows = await db.all<{ component_id: number; kind: ComponentKind; n: number }>(sql`
+    select component_id, kind, count(*) as n from visible_repair_lines
+     where organisation_id = ${scope.organisationId} and component_id is not null
+     group by component_id, kind`);
+  const out = new Map<number, Record<ComponentKind, number>>();
+  for (const r of rows) {
+    const counts = out.get(Number(r.component_id)) ?? { service: 0, wear: 0, failure: 0 };
+    counts[r.kind] = Number(r.n);
+    out.set(Number(r.component_id), counts);
+  }
+  return out;
+}
+
 /** The organisation's kind of one component (for a line written outside an import). */
 export async function getComponentKind(
   db: DbOrTx,
@@ -64,7 +83,7 @@ export async function getComponentKind(
 /**
  * Sets the organisation's kind of a component (admins), classifies its repair lines again
  * (lineKind: a failure component's scheduled lines stay service), records the change in the
- * audit log and queues a recompute. Setting Recurra's default removes the organisation's own.
+ * audit log and queues a recompute when any line changed kind. Setting Recurra's default removes the organisation's own.
  * Returns the lines classified again; nothing changes (and nothing is audited) when the kind
  * is already the one asked for.
  */
@@ -114,11 +133,14 @@ export async function setComponentKind(
       entityId: before.slug,
       detail: { from: before.kind, to: kind, lines: changed.rowsAffected },
     });
-    await enqueueJob(tx, {
-      kind: "recompute",
-      organisationId: scope.organisationId,
-      payload: { organisationId: scope.organisationId },
-    });
+    // The cells count lines by kind: with no line classified again, nothing changes in them.
+    if (changed.rowsAffected > 0) {
+      await enqueueJob(tx, {
+        kind: "recompute",
+        organisationId: scope.organisationId,
+        payload: { organisationId: scope.organisationId },
+      });
+    }
     return {
       component: { ...before, kind },
       linesChanged: changed.rowsAffected,

@@ -45,3 +45,44 @@ test("a distance typed with thousands separators saves as that number; an empty 
   await page.reload();
   await expect(page.getByLabel(`Mileage band width (${unit})`)).toHaveValue(String(before));
 });
+
+test("an admin sets a component's kind on Settings → Components; it is audited and can be set back", async ({
+  page,
+}) => {
+  await signIn(page, "admin");
+  await page.goto("/settings");
+  await page.getByRole("link", { name: "Components →" }).click();
+  await expect(page.getByRole("heading", { name: "Components", level: 1 })).toBeVisible();
+  await expect(page.getByText("Scheduled maintenance. Never counted as a failure")).toBeVisible();
+  // Wheel alignment has no repair lines in the demo: changing it moves nothing in the statistics.
+  const kind = page.getByLabel("Kind of Wheel alignment");
+  await expect(kind).toHaveValue("service");
+  await kind.selectOption("failure");
+  const row = page.getByRole("row", { name: /Wheel alignment/ });
+  await row.getByRole("button", { name: "Save" }).click();
+  await expect(row.getByRole("status")).toHaveText(
+    "Saved as failure. None of your repair lines changed kind.",
+  );
+  await page.reload();
+  await expect(page.getByLabel("Kind of Wheel alignment")).toHaveValue("failure");
+  await expect(page.getByText(/Your choice; Recurra.s default is scheduled service/)).toBeVisible();
+  await page.goto("/settings/audit");
+  await expect(
+    page.getByText("component.kind · component tyres-wheels/alignment").first(),
+  ).toBeVisible();
+  await page.goto("/settings/components");
+  await page.getByLabel("Kind of Wheel alignment").selectOption("service");
+  await page
+    .getByRole("row", { name: /Wheel alignment/ })
+    .getByRole("button", { name: "Save" })
+    .click();
+  await expect(
+    page.getByRole("row", { name: /Wheel alignment/ }).getByRole("status"),
+  ).toContainText("Saved as scheduled service");
+});
+
+test("a manager may not open Settings → Components", async ({ page }) => {
+  await signIn(page, "manager");
+  const response = await page.goto("/settings/components");
+  expect(response?.status()).toBe(403);
+});

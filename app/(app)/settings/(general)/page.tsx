@@ -23,6 +23,7 @@ export default async function SettingsPage() {
         actions={
           <>
             <Link href="/settings/members">Members →</Link>
+            <Link href="/settings/components">Components →</Link>
             {isMailCaptured ? <Link href="/settings/mail">Captured mail →</Link> : null}
             <Link href="/settings/audit">Audit log →</Link>
           </>

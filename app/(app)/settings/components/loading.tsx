@@ -1,0 +1,1 @@
+export { PageSkeleton as default } from "@/components/ui/skeleton";
