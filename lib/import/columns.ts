@@ -150,6 +150,11 @@ const COMPONENT = column("component", "Component", "component", [
   "system and component",
   "repair code",
   "job code",
+  "job",
+  "job name",
+  "job type",
+  "task",
+  "service task",
   "assembly",
   "repair category",
 ]);
