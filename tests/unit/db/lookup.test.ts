@@ -233,6 +233,22 @@ describe("the lookup on the demo", () => {
     expect(tideCount).not.toBe(northCount);
   });
 
+  test("without codes, no cause is scheduled service or wear (oil and filter, lamps, pads were ranked first before kinds)", async () => {
+    const tech = scope.technician!;
+    const vehicles = await db.all<{ vin: string }>(sql`
+      select vin from vehicles where organisation_id = ${tech.organisationId}
+         and vin is not null and last_odometer_mi is not null order by id limit 5`);
+    const [service] = await db.all<{ slugs: string }>(sql`
+      select group_concat(slug, ' ') as slugs from components where kind in ('service', 'wear')`);
+    const notFailures = new Set(String(service!.slugs).split(" "));
+    for (const v of vehicles) {
+      const result = await getLookup(db, tech, { vin: v.vin, codes: [], symptom: null });
+      if (!result.found) continue;
+      for (const c of result.causes)
+        expect(notFailures.has(c.component?.slug ?? ""), `${v.vin}: ${c.title}`).toBe(false);
+    }
+  });
+
   test("a viewer may not look up", async () => {
     await expect(
       getLookup(db, scope.viewer!, { vin: k2.vin, codes: [], symptom: null }),
