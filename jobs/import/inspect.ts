@@ -14,6 +14,7 @@ import {
   type CsvDelimiter,
   type ReadOptions,
 } from "@/lib/import";
+import { importParseOptions, MAX_RECORD_CHARS } from "./csv-stream";
 import { HEAD_BYTES } from "./storage";
 
 export const PREVIEW_ROWS = 20;
@@ -66,8 +67,10 @@ export function inspectUpload(
     defaults?: Partial<ReadOptions>;
   },
 ): Inspection {
-  // A head cut mid-file may end inside a character or a row: keep whole lines only.
-  const whole = opts.isTruncated ? head.subarray(0, Math.max(0, head.lastIndexOf(0x0a) + 1)) : head;
+  // A head cut mid-file may end inside a character or a row: keep whole lines only (a line
+  // ends at LF or, as in the full read, at a lone CR).
+  const lineEnd = Math.max(head.lastIndexOf(0x0a), head.lastIndexOf(0x0d));
+  const whole = opts.isTruncated ? head.subarray(0, Math.max(0, lineEnd + 1)) : head;
   const empty: Inspection = {
     delimiter: ",",
     headers: [],
@@ -86,12 +89,9 @@ export function inspectUpload(
   let records: string[][];
   try {
     records = parse(text, {
-      delimiter,
-      relax_column_count: true,
-      relax_quotes: true,
+      ...importParseOptions(delimiter),
       skip_empty_lines: true,
       to: PREVIEW_ROWS + 1,
-      max_record_size: 1_000_000,
     }) as string[][];
   } catch (e) {
     const code = (e as { code?: string }).code;
@@ -99,7 +99,7 @@ export function inspectUpload(
       code === "CSV_QUOTE_NOT_CLOSED"
         ? 'A quoted field near the top of the file is never closed (a missing ").'
         : code === "CSV_MAX_RECORD_SIZE"
-          ? "The first row is longer than 1,000,000 characters; is this really a CSV file?"
+          ? `The first row is longer than ${MAX_RECORD_CHARS.toLocaleString("en-GB")} characters; is this really a CSV file?`
           : `The top of the file cannot be read as CSV: ${(e as Error).message}`;
     return { ...empty, delimiter, problems: [message] };
   }
