@@ -24,7 +24,8 @@ import type { Powertrain } from "@/db/schema/catalogue";
 import { parseDtc, splitDtcList } from "@/lib/dtc";
 import { checkVin } from "@/lib/vin";
 import type { ColumnMapping } from "./mapping";
-import { describeDateFormat, type ReadOptions } from "./read-options";
+import { describeDateFormat } from "./date-order";
+import type { ReadOptions } from "./read-options";
 import {
   createRowSchema,
   type FaultRow,
