@@ -27,10 +27,10 @@ import {
   ROLES,
   type ImportKind,
 } from "@/db/schema";
-import { mappingByName } from "@/jobs/import/inspect";
+import { mappingByName, resolveDateFormat } from "@/jobs/import/inspect";
 import { mappingToIndexes } from "@/jobs/import/run-import";
 import { validateMapping } from "@/lib/import";
-import { receiveUpload } from "@/jobs/import/upload";
+import { inspectStoredImport, receiveUpload } from "@/jobs/import/upload";
 import { startWorker } from "@/jobs/worker";
 import { loadReferenceData } from "@/db/seed/reference";
 import { DEMO_ORG_SLUGS, loadDemo } from "@/db/seed/demo";
@@ -42,6 +42,15 @@ import { recomputeOrganisation } from "@/jobs/recompute/recompute";
 import { MIN_PASSWORD_LENGTH } from "@/lib/auth/password";
 
 type Output = { json?: boolean };
+
+/** --date-order's words, as the import's date formats. */
+const DATE_ORDERS = { dmy: "dmy", mdy: "mdy", ymd: "iso" } as const;
+type ImportCommandOptions = {
+  org: string;
+  kind: ImportKind;
+  mapping?: string;
+  dateOrder?: keyof typeof DATE_ORDERS;
+};
 
 const log = (msg: string) => process.stderr.write(`${msg}\n`);
 
@@ -210,8 +219,14 @@ export function buildProgram(): Command {
     .requiredOption("--org <slug>", "organisation slug")
     .addOption(new Option("--kind <kind>", "data kind").choices(IMPORT_KINDS).makeOptionMandatory())
     .option("--mapping <file.json>", "column mapping: { canonical column: header in the file }")
+    .addOption(
+      new Option(
+        "--date-order <order>",
+        "how dates are written: day/month/year, month/day/year or year-month-day (needed when every date fits both of the first two)",
+      ).choices(Object.keys(DATE_ORDERS)),
+    )
     .action(
-      action(async (file: string, opts: { org: string; kind: ImportKind; mapping?: string }) => {
+      action(async (file: string, opts: ImportCommandOptions) => {
         const started = performance.now();
         const db = await openMigrated();
         const org = await findOrganisationBySlug(db, opts.org);
@@ -228,6 +243,7 @@ export function buildProgram(): Command {
           return new Error(message);
         };
         let mapping = mappingByName(inspection.headers, inspection.mapping);
+        let inspected = inspection;
         if (opts.mapping) {
           const given = z
             .record(z.string(), z.string().nullable())
@@ -239,17 +255,26 @@ export function buildProgram(): Command {
             mappingToIndexes(inspection.headers, mapping),
           );
           if (problems.length) throw await abandon(problems.join(" "));
+          // Which columns hold dates may have changed: learn their order again.
+          inspected = await inspectStoredImport(db, scope, importId, mapping);
         }
         const blocking = inspection.problems.filter(
           (p) => !opts.mapping || !/column|required/i.test(p),
         );
         if (blocking.length) throw await abandon(blocking.join(" "));
-        for (const notice of [...inspection.notices, ...inspection.readNotes]) log(notice);
+        const dates = resolveDateFormat(
+          inspected,
+          opts.dateOrder ? DATE_ORDERS[opts.dateOrder] : undefined,
+        );
+        if (!dates.ok) {
+          throw await abandon(`${dates.message} Give --date-order dmy or --date-order mdy.`);
+        }
+        for (const notice of [...inspection.notices, ...inspected.readNotes]) log(notice);
         const { jobId } = await startImport(db, scope, importId, {
           delimiter: inspection.delimiter,
           headers: inspection.headers,
           mapping,
-          read: inspection.read,
+          read: { ...inspected.read, dateFormat: dates.dateFormat },
         });
         await startWorker({ db, jobId, isOneShot: true, log });
         const result = await getImport(db, scope, importId);

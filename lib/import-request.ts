@@ -10,7 +10,12 @@ export const UploadQuery = z.object({
 });
 
 export const ReadOptionsInput = z.object({
-  dateFormat: z.enum(["iso", "mdy", "dmy"]),
+  /**
+   * The order the user chose. Absent: not chosen, and the file's own order is read; a file
+   * whose dates fit both orders cannot start without one (jobs/import/inspect.ts
+   * resolveDateFormat).
+   */
+  dateFormat: z.enum(["iso", "mdy", "dmy"]).optional(),
   decimalSeparator: z.enum([".", ","]),
   distanceUnit: z.enum(["mi", "km"]),
   volumeUnit: z.enum(["l", "us-gal", "imp-gal"]),

@@ -4,10 +4,13 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useMemo, useState } from "react";
 import { buttonClass, inputClass } from "@/components/ui/button";
 import { Skeleton } from "@/components/ui/skeleton";
+import type { DateOrder } from "@/lib/import/date-order";
 import { ApiError, fetchJson } from "./api";
+import { DateOrderNotice, DateOrderQuestion } from "./date-order";
 
+type DateFormat = "iso" | "mdy" | "dmy";
 type ReadOptions = {
-  dateFormat: "iso" | "mdy" | "dmy";
+  dateFormat: DateFormat;
   decimalSeparator: "." | ",";
   distanceUnit: "mi" | "km";
   volumeUnit: "l" | "us-gal" | "imp-gal";
@@ -21,6 +24,7 @@ type Preview = {
     headers: string[];
     mapping: Record<string, number | null>;
     read: ReadOptions;
+    dateOrder: DateOrder;
     readNotes: string[];
     problems: string[];
     notices: string[];
@@ -66,6 +70,13 @@ const READ_CHOICES: { key: keyof ReadOptions; label: string; options: [string, s
   },
 ];
 
+/** How the file's own dates read when the user has not chosen ("" while it is theirs to choose). */
+function fileDateFormat(order: DateOrder, placeholder: DateFormat): DateFormat | "" {
+  if (order.status === "decided") return order.format;
+  if (order.status === "iso") return "iso";
+  return order.status === "ask" ? "" : placeholder;
+}
+
 function show(v: unknown): string {
   if (v === null || v === undefined) return "";
   if (Array.isArray(v)) return v.join(" ");
@@ -102,16 +113,31 @@ function MappingEditor({ importId, initial }: { importId: number; initial: Previ
     ),
   );
   const [read, setRead] = useState<ReadOptions>(inspection.read);
-  const choice = useMemo(() => ({ mapping, read }), [mapping, read]);
+  // The date order the user chose; until then the server reads the file's own, and refuses to
+  // start a file whose dates fit both orders.
+  const [dateChoice, setDateChoice] = useState<DateFormat | null>(null);
+  const choice = useMemo(
+    () => ({ mapping, read: { ...read, dateFormat: dateChoice ?? undefined } }),
+    [mapping, read, dateChoice],
+  );
   const live = useQuery({
     queryKey: ["preview-live", importId, choice],
     queryFn: () =>
-      fetchJson<{ problems: string[]; rows: PreviewRow[] }>(`/api/imports/${importId}/preview`, {
-        method: "POST",
-        body: JSON.stringify(choice),
-      }),
+      fetchJson<{ problems: string[]; rows: PreviewRow[]; dateOrder: DateOrder }>(
+        `/api/imports/${importId}/preview`,
+        { method: "POST", body: JSON.stringify(choice) },
+      ),
     placeholderData: (prev) => prev,
   });
+  // Learnt again from the columns mapped on screen.
+  const dateOrder = live.data?.dateOrder ?? inspection.dateOrder;
+  const isDateOrderOpen = dateOrder.status === "ask" && dateChoice === null;
+  // The first note is the date order's (detectReadOptions): said in its own block when the file
+  // decides or the user must.
+  const readNotes =
+    dateOrder.status === "decided" || dateOrder.status === "ask"
+      ? inspection.readNotes.slice(1)
+      : inspection.readNotes;
   const start = useMutation({
     mutationFn: () =>
       fetchJson(`/api/imports/${importId}/start`, { method: "POST", body: JSON.stringify(choice) }),
@@ -188,7 +214,7 @@ function MappingEditor({ importId, initial }: { importId: number; initial: Previ
           How values are written
         </h2>
         <ul className="mt-1 list-disc pl-5 text-sm text-ink-soft">
-          {inspection.readNotes.map((n) => (
+          {readNotes.map((n) => (
             <li key={n}>{n}</li>
           ))}
         </ul>
@@ -198,9 +224,22 @@ function MappingEditor({ importId, initial }: { importId: number; initial: Previ
               <span className="mb-1 block font-medium">{rc.label}</span>
               <select
                 className={inputClass}
-                value={read[rc.key]}
-                onChange={(e) => setRead({ ...read, [rc.key]: e.target.value } as ReadOptions)}
+                value={
+                  rc.key === "dateFormat"
+                    ? (dateChoice ?? fileDateFormat(dateOrder, read.dateFormat))
+                    : read[rc.key]
+                }
+                onChange={(e) =>
+                  rc.key === "dateFormat"
+                    ? setDateChoice(e.target.value as DateFormat)
+                    : setRead({ ...read, [rc.key]: e.target.value } as ReadOptions)
+                }
               >
+                {rc.key === "dateFormat" && isDateOrderOpen ? (
+                  <option value="" disabled>
+                    — choose below —
+                  </option>
+                ) : null}
                 {rc.options.map(([value, label]) => (
                   <option key={value} value={value}>
                     {label}
@@ -211,6 +250,12 @@ function MappingEditor({ importId, initial }: { importId: number; initial: Previ
           ))}
         </div>
       </section>
+      <DateOrderNotice order={dateOrder} />
+      <DateOrderQuestion
+        order={dateOrder}
+        chosen={dateChoice === "dmy" || dateChoice === "mdy" ? dateChoice : null}
+        onChoose={setDateChoice}
+      />
       <section
         aria-labelledby="preview-title"
         className="rounded-lg border border-line bg-panel p-5"
@@ -273,11 +318,16 @@ function MappingEditor({ importId, initial }: { importId: number; initial: Previ
         <button
           type="button"
           className={buttonClass.primary}
-          disabled={fileProblems.length > 0 || problems.length > 0 || start.isPending}
+          disabled={
+            fileProblems.length > 0 || problems.length > 0 || isDateOrderOpen || start.isPending
+          }
           onClick={() => start.mutate()}
         >
           {start.isPending ? "Starting…" : "Start import"}
         </button>
+        {isDateOrderOpen ? (
+          <p className="text-sm text-ink-soft">Choose which way round the dates are first.</p>
+        ) : null}
         {start.error ? (
           <p role="alert" className="text-sm text-alarm-700">
             {start.error.message} {startProblems.join(" ")}

@@ -10,6 +10,7 @@ import {
   requestRunCancel,
 } from "@/jobs/import/run-files";
 import { recordAudit } from "./audit";
+import { lastOdometerRefreshSql } from "./last-odometer";
 import {
   assertCan,
   ConflictError,
@@ -342,9 +343,24 @@ export async function undoImport(db: Db, scope: OrgScope, importId: number) {
     throw new ConflictError(`Only a finished import can be undone; this one is ${row.status}.`);
   }
   const org = scope.organisationId;
+  // The vehicles whose readings the import brought, found before its rows go (the rows of a
+  // done import no longer change); their last readings are worked out again from what is left.
+  const touched = await db.$client.execute({
+    sql: `select vehicle_id from visible_repair_orders where organisation_id = ?1 and import_id = ?2
+          union select vehicle_id from visible_fault_events where organisation_id = ?1 and import_id = ?2
+          union select vehicle_id from visible_fuel_transactions where organisation_id = ?1 and import_id = ?2
+          union select vehicle_id from visible_odometer_readings where organisation_id = ?1 and import_id = ?2`,
+    args: [org, importId],
+  });
+  const vehicleIds = touched.rows.map((r) => Number(r.vehicle_id));
+  const odometers: string[] = [];
+  for (let i = 0; i < vehicleIds.length; i += 1_000) {
+    odometers.push(lastOdometerRefreshSql(org, { vehicleIds: vehicleIds.slice(i, i + 1_000) }));
+  }
   await db.$client.batch(
     [
       ...undoStatements(row.kind, org, importId),
+      ...odometers,
       {
         sql: `update imports set status = 'undone', undone_at = strftime('%Y-%m-%dT%H:%M:%fZ','now'), undone_by = ?
                where id = ? and organisation_id = ? and status = 'done'`,

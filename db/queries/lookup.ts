@@ -16,6 +16,7 @@ import {
 import { enqueueJob } from "@/jobs/queue";
 import { lineKind } from "@/lib/component-kinds";
 import { getComponentKind } from "./component-kinds";
+import { refreshLastOdometers } from "./last-odometer";
 import {
   cautionsForComponent,
   cautionsForWork,
@@ -615,15 +616,8 @@ export async function recordFinding(db: Db, scope: OrgScope, input: FindingInput
       .update(knownIssueFindings)
       .set({ repairLineId: line.id })
       .where(orgWhere(knownIssueFindings, scope, eq(knownIssueFindings.id, finding.id)));
-    if (
-      odometerMi !== null &&
-      (vehicle.lastOdometerMi === null || odometerMi > vehicle.lastOdometerMi)
-    ) {
-      await tx
-        .update(vehicles)
-        .set({ lastOdometerMi: odometerMi, lastOdometerOn: today })
-        .where(orgWhere(vehicles, scope, eq(vehicles.id, vehicle.id)));
-    }
+    // The finding's repair order is a dated reading like any other.
+    await refreshLastOdometers(tx, scope, { vehicleIds: [vehicle.id] });
     await recordAudit(tx, scope, {
       action: "finding.record",
       entity: "known_issue_finding",

@@ -21,7 +21,7 @@ export const vehicles = sqliteTable(
     inServiceDate: text("in_service_date"),
     /** Unit the vehicle's odometer reads in; stored readings are always miles. */
     odometerUnit: text("odometer_unit", { enum: DISTANCE_UNITS }).notNull().default("mi"),
-    /** Latest known odometer reading, miles (kept current by imports). */
+    /** Latest-dated odometer reading, miles, worked out from the records (last-odometer.ts). */
     lastOdometerMi: real("last_odometer_mi"),
     lastOdometerOn: text("last_odometer_on"),
     /** Matched from the generation catalogue; null when no generation covers the model year. */

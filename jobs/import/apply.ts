@@ -1,5 +1,6 @@
 import type { InStatement } from "@libsql/client";
 import { isLocalFileDatabase, type Db } from "@/db";
+import { lastOdometerRefreshSql } from "@/db/queries/last-odometer";
 import type { ImportKind } from "@/db/schema";
 import { sqlInt } from "./sql-literal";
 
@@ -53,15 +54,6 @@ function createVehicles(org: number, imp: number, staged: string, extra = ""): s
                           and (v.vin = s.vin or v.unit_number = s.unit_number))`;
 }
 
-/** Keeps each touched vehicle's latest odometer reading current. */
-function touchOdometers(table: string, dateColumn: string, imp: number): string {
-  return `update vehicles set last_odometer_mi = x.odometer_mi, last_odometer_on = x.read_on
-      from (select vehicle_id, max(odometer_mi) as odometer_mi, max(substr(${dateColumn}, 1, 10)) as read_on
-              from ${table} where import_id = ${imp} and odometer_mi is not null group by vehicle_id) x
-     where vehicles.id = x.vehicle_id
-       and (vehicles.last_odometer_mi is null or x.odometer_mi > vehicles.last_odometer_mi)`;
-}
-
 /** The statements that apply one small kind, and how many rows of this import ended up in the data. */
 type Plan = { statements: string[]; importedSql: string };
 
@@ -76,7 +68,6 @@ function plan(kind: Exclude<ImportKind, ChunkedKind>, org: number, imp: number):
           `insert into odometer_readings (organisation_id, vehicle_id, read_on, odometer_mi, source, import_id)
              select ${org}, ${vehicleOf(org, "s")}, date('now'), s.odometer_mi, 'roster', ${imp}
                from ${staged} s where s.import_id = ${imp} and s.odometer_mi is not null`,
-          touchOdometers("odometer_readings", "read_on", imp),
           clear,
         ],
         importedSql: `(select count(*) from vehicles where import_id = ${imp})`,
@@ -335,7 +326,12 @@ export async function applyStagedImport(
   const kind = input.kind;
   if (!isChunked(kind)) {
     const { statements, importedSql } = plan(kind, org, imp);
-    await db.$client.batch([...pragmas, ...statements, markDone(importedSql), recompute], "write");
+    // After the import is marked done: its rows are hidden from the views until then.
+    const odometers = kind === "vehicles" ? [lastOdometerRefreshSql(org, { importId: imp })] : [];
+    await db.$client.batch(
+      [...pragmas, ...statements, markDone(importedSql), ...odometers, recompute],
+      "write",
+    );
     return;
   }
 
@@ -355,12 +351,9 @@ export async function applyStagedImport(
   await db.$client.batch(
     [
       ...pragmas,
-      touchOdometers(
-        TARGET[kind],
-        kind === "fuel" ? "filled_at" : kind === "faults" ? "occurred_at" : "opened_on",
-        imp,
-      ),
       markDone(String(imported)),
+      // After the import is marked done: until then the views hide its rows.
+      lastOdometerRefreshSql(org, { importId: imp }),
       recompute,
     ],
     "write",

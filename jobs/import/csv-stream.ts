@@ -4,10 +4,23 @@ import type { Options } from "csv-parse";
 /** Longest row read (csv-parse's max_record_size): a longer one is a file error, not a row. */
 export const MAX_RECORD_CHARS = 1_000_000;
 
-/** How an import's file is parsed (jobs/import/read.ts; the import benchmark parses the same way). */
+/**
+ * What ends a record, outside quotes: CRLF, LF, or a lone CR. csv-parse otherwise takes the
+ * first line ending it sees as the only one, so in a CRLF file a lone CR (or LF) left by a
+ * spreadsheet or a copy-paste would join two rows into one without a word. CRLF comes first so
+ * that it ends one record, not two. A CR or LF inside a quoted field stays part of the field.
+ */
+export const RECORD_DELIMITERS = ["\r\n", "\n", "\r"];
+
+/**
+ * How an import's file is parsed: jobs/import/read.ts, the head inspection (inspect.ts, so the
+ * preview and the import see the same rows) and the import benchmark. Rows may have more or
+ * fewer fields than the header: the row reader judges them (lib/import/rows.ts).
+ */
 export function importParseOptions(delimiter: string): Options {
   return {
     delimiter,
+    record_delimiter: RECORD_DELIMITERS,
     bom: true,
     relax_column_count: true,
     // A stray quote inside an unquoted field is kept as text (common in exports).

@@ -1,4 +1,5 @@
 import type { Db } from "@/db";
+import { lastOdometerRefreshSql } from "@/db/queries/last-odometer";
 import { eq } from "drizzle-orm";
 import { generations as generationsTable, type ImportKind } from "@/db/schema";
 import type { TypedRow } from "@/lib/import";
@@ -230,20 +231,8 @@ function directSink(
   generationOf: ReturnType<typeof generationFinder>,
   /** After each chunk is with the writer: the reading's progress so far. */
   onWrite: (progress: Parameters<RowSink["write"]>[1]) => void,
-): RowSink & { odometerUpdates: () => string[] } {
+): RowSink {
   let nextVehicle = bases.vehicles;
-  // Each vehicle's highest odometer and latest date among the rows read (its last reading).
-  const latest = new Map<number, { mi: number; on: string }>();
-  const touch = (vehicleId: number, on: SqlValue, mi: SqlValue) => {
-    if (typeof mi !== "number" || typeof on !== "string") return;
-    const day = on.slice(0, 10);
-    const seen = latest.get(vehicleId);
-    if (!seen) latest.set(vehicleId, { mi, on: day });
-    else {
-      if (mi > seen.mi) seen.mi = mi;
-      if (day > seen.on) seen.on = day;
-    }
-  };
   let nextLine = bases.lines;
   const orders = new FileOrders(bases.orders);
   const vehicleRows = new RowPieces(VEHICLE_COLUMNS.length);
@@ -326,7 +315,6 @@ function directSink(
         const { n: order, isNew } = orders.findOrAdd(ro, vehicleId, v[8] as number | null);
         if (isNew) {
           // The first line of an RO number in the file gives the order's vehicle, date and odometer.
-          touch(vehicleId, v[6], v[8]);
           orderRows.current.push(
             orders.id(order),
             vehicleId,
@@ -350,7 +338,6 @@ function directSink(
         for (let i = LINE_OWN_FROM; i < v.length; i++) line.push(cell(v[i]));
         lineRows.endRow();
       } else {
-        touch(vehicleId, v[5], v[6]);
         const event = eventRows.current;
         event.push(vehicleId);
         for (let i = EVENT_FROM; i < v.length; i++) event.push(cell(v[i]));
@@ -369,20 +356,6 @@ function directSink(
       if (rejects.length) writer.run(rejects.join(";\n"));
       await writer.endChunk();
       onWrite(progress);
-    },
-    /** UPDATEs that keep each touched vehicle's latest odometer reading current. */
-    odometerUpdates() {
-      const tuples = [...latest].map(
-        ([id, r]) => `(${int(id)},${sqlLiteral(r.mi)},${sqlLiteral(r.on)})`,
-      );
-      const out: string[] = [];
-      for (let i = 0; i < tuples.length; i += 500) {
-        out.push(`update vehicles set last_odometer_mi = x.column2, last_odometer_on = x.column3
-            from (values ${tuples.slice(i, i + 500).join(",")}) x
-           where vehicles.id = x.column1
-             and (vehicles.last_odometer_mi is null or x.column2 > vehicles.last_odometer_mi)`);
-      }
-      return out;
     },
   };
 }
@@ -454,7 +427,6 @@ export async function readAndWrite(
       ? `select count(*) from repair_lines where id > ${int(bases.lines)}`
       : `select count(*) from ${EVENTS[input.kind].table} where id > ${int(bases.events)}`;
   const finalSql = [
-    ...sink.odometerUpdates(),
     `with n as materialized (${importedSql})
      update imports set status = 'done', finished_at = strftime('%Y-%m-%dT%H:%M:%fZ', 'now'),
             bytes_read = ${int(last.bytesRead)}, rows_total = ${int(result.rowsTotal)},
@@ -463,6 +435,8 @@ export async function readAndWrite(
             rows_duplicate = ${int(result.duplicatesInFile)} + max(0, ${int(result.staged)} - (select * from n)),
             vehicles_created = (select count(*) from vehicles where id > ${int(bases.vehicles)})
       where id = ${imp} and status = 'reading'`,
+    // In the same transaction: the touched vehicles' last readings, from their records.
+    lastOdometerRefreshSql(org, { importId: imp }),
     `insert into jobs (organisation_id, kind, payload, status, run_after, max_attempts)
        values (${org}, 'recompute', ${sqlLiteral(JSON.stringify({ organisationId: org }))}, 'queued', ${Date.now()}, 3)`,
   ].join(";\n");

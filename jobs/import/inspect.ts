@@ -10,13 +10,20 @@ import {
   sniffDelimiter,
   stripBom,
   validateMapping,
+  describeDateOrder,
+  needsDateOrder,
   type ColumnMapping,
   type CsvDelimiter,
+  type DateFormat,
+  type DateOrder,
   type ReadOptions,
 } from "@/lib/import";
+import { importParseOptions, MAX_RECORD_CHARS } from "./csv-stream";
 import { HEAD_BYTES } from "./storage";
 
 export const PREVIEW_ROWS = 20;
+/** Rows of the head that the date order, decimal separator and units are learnt from. */
+export const SAMPLED_ROWS = 1_000;
 
 const KIND_WORDS: Record<ImportKind, string> = {
   vehicles: "a vehicle roster",
@@ -34,6 +41,11 @@ export type Inspection = {
   sampleRows: string[][];
   mapping: ColumnMapping;
   read: ReadOptions;
+  /**
+   * Whether the file decides the order of its dates or the user must choose it (then
+   * `read.dateFormat` only fills the place: see resolveDateFormat).
+   */
+  dateOrder: DateOrder;
   /** Why the reading options were chosen, and where they are a guess. */
   readNotes: string[];
   /** Problems that stop the import until fixed (mapping problems can be fixed on screen). */
@@ -55,7 +67,7 @@ export function mappingByName(
 /**
  * Looks at the head of an uploaded file: is it CSV text, which delimiter, the header row, the
  * first rows, the automatic column mapping (overlaid with the organisation's remembered one),
- * and the detected date format, decimal separator and units.
+ * and the date order, decimal separator and units, learnt from up to SAMPLED_ROWS rows.
  */
 export function inspectUpload(
   head: Buffer,
@@ -63,17 +75,22 @@ export function inspectUpload(
   opts: {
     isTruncated: boolean;
     remembered?: Record<string, string | null> | null;
+    /** The mapping on the screen (by header name), when it is being edited. */
+    mapping?: Record<string, string | null>;
     defaults?: Partial<ReadOptions>;
   },
 ): Inspection {
-  // A head cut mid-file may end inside a character or a row: keep whole lines only.
-  const whole = opts.isTruncated ? head.subarray(0, Math.max(0, head.lastIndexOf(0x0a) + 1)) : head;
+  // A head cut mid-file may end inside a character or a row: keep whole lines only (a line
+  // ends at LF or, as in the full read, at a lone CR).
+  const lineEnd = Math.max(head.lastIndexOf(0x0a), head.lastIndexOf(0x0d));
+  const whole = opts.isTruncated ? head.subarray(0, Math.max(0, lineEnd + 1)) : head;
   const empty: Inspection = {
     delimiter: ",",
     headers: [],
     sampleRows: [],
     mapping: {},
     read: { dateFormat: "iso", decimalSeparator: ".", distanceUnit: "mi", volumeUnit: "us-gal" },
+    dateOrder: { status: "none" },
     readNotes: [],
     problems: [],
     notices: [],
@@ -83,33 +100,41 @@ export function inspectUpload(
   const text = stripBom(whole.toString("utf8"));
   if (text.trim() === "") return { ...empty, problems: ["The file is empty."] };
   const delimiter = sniffDelimiter(text.slice(0, 64 * 1024));
+  const parseHead = (rows: number) =>
+    parse(text, {
+      ...importParseOptions(delimiter),
+      skip_empty_lines: true,
+      to: rows + 1,
+    }) as string[][];
   let records: string[][];
   try {
-    records = parse(text, {
-      delimiter,
-      relax_column_count: true,
-      relax_quotes: true,
-      skip_empty_lines: true,
-      to: PREVIEW_ROWS + 1,
-      max_record_size: 1_000_000,
-    }) as string[][];
+    try {
+      records = parseHead(SAMPLED_ROWS);
+    } catch {
+      // Something further down cannot be read (or the head's cut falls inside a quoted field):
+      // learn from the top rows; the import reports the problem at its row.
+      records = parseHead(PREVIEW_ROWS);
+    }
   } catch (e) {
     const code = (e as { code?: string }).code;
     const message =
       code === "CSV_QUOTE_NOT_CLOSED"
         ? 'A quoted field near the top of the file is never closed (a missing ").'
         : code === "CSV_MAX_RECORD_SIZE"
-          ? "The first row is longer than 1,000,000 characters; is this really a CSV file?"
+          ? `The first row is longer than ${MAX_RECORD_CHARS.toLocaleString("en-GB")} characters; is this really a CSV file?`
           : `The top of the file cannot be read as CSV: ${(e as Error).message}`;
     return { ...empty, delimiter, problems: [message] };
   }
   const headers = (records[0] ?? []).map((h) => h.trim());
-  const sampleRows = records.slice(1);
+  const sampleRows = records.slice(1, PREVIEW_ROWS + 1);
   const auto = autoMapHeaders(kind, headers);
   const mapping: ColumnMapping = { ...auto.mapping };
-  for (const [key, name] of Object.entries(opts.remembered ?? {})) {
+  // The mapping being edited, exactly; else the remembered one where its headers are here.
+  for (const [key, name] of Object.entries(opts.mapping ?? opts.remembered ?? {})) {
     const at = name === null ? -1 : headers.indexOf(name);
-    if (key in mapping && at >= 0) mapping[key] = at;
+    if (!(key in mapping)) continue;
+    if (at >= 0) mapping[key] = at;
+    else if (opts.mapping && name === null) mapping[key] = null;
   }
   const problems: string[] = [];
   const notices: string[] = [];
@@ -132,7 +157,7 @@ export function inspectUpload(
       `This looks like ${KIND_WORDS[best.kind]}, not ${KIND_WORDS[kind]}. Check the kind you chose.`,
     );
   }
-  const detected = detectReadOptions(kind, headers, sampleRows, mapping, opts.defaults);
+  const detected = detectReadOptions(kind, headers, records.slice(1), mapping, opts.defaults);
   const readNotes = [...detected.reasons];
   return {
     delimiter,
@@ -140,10 +165,31 @@ export function inspectUpload(
     sampleRows,
     mapping,
     read: detected.options,
+    dateOrder: detected.dateOrder,
     readNotes,
     problems,
     notices,
   };
+}
+
+/**
+ * The date order an import reads its file with: the one the user chose, else the file's own.
+ * When the file leaves the order open (every sampled date fits both, or they disagree) and
+ * none was chosen, the answer is the question instead: the import must not start on a guess.
+ * The start route and the command line both ask here.
+ */
+export function resolveDateFormat(
+  inspection: Pick<Inspection, "dateOrder" | "read">,
+  chosen: DateFormat | undefined,
+): { ok: true; dateFormat: DateFormat } | { ok: false; message: string } {
+  if (chosen) return { ok: true, dateFormat: chosen };
+  if (needsDateOrder(inspection.dateOrder)) {
+    return {
+      ok: false,
+      message: describeDateOrder(inspection.dateOrder, inspection.read.dateFormat),
+    };
+  }
+  return { ok: true, dateFormat: inspection.read.dateFormat };
 }
 
 /** The canonical columns of a kind, for the mapping screen. */

@@ -293,6 +293,8 @@ export async function readRows(db: Db, input: ReadInput, sink: RowSink): Promise
   // Known vehicles by VIN and unit number; rows naming a new vehicle add it (if they describe it).
   const knownVins = new Map<string, number | null>();
   const knownUnits = new Map<string, number | null>();
+  // Seeded with each vehicle's stored last reading (the latest-dated one); the file's own
+  // readings are added as they are read (what is remembered, and its bound: odometer-checks.ts).
   const odometer = new OdometerChecks();
   for (const v of vehicleRows) {
     if (v.vin) knownVins.set(v.vin, v.id);

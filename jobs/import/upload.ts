@@ -60,11 +60,15 @@ export async function receiveUpload(
   return { importId: created.id, inspection };
 }
 
-/** Inspects an uploaded file again (the mapping screen reloads it). */
+/**
+ * Inspects an uploaded file again (the mapping screen reloads it), with the mapping being
+ * edited when given (by header name): the date order depends on which columns hold dates.
+ */
 export async function inspectStoredImport(
   db: Db,
   scope: OrgScope,
   importId: number,
+  mapping?: Record<string, string | null>,
 ): Promise<Inspection> {
   const file = await getImportFile(db, scope, importId);
   const org = await getOrganisation(db, scope);
@@ -76,6 +80,7 @@ export async function inspectStoredImport(
     return inspectUpload(buffer.subarray(0, bytesRead), file.kind, {
       isTruncated: size > bytesRead,
       remembered: await getRememberedMapping(db, scope, file.kind),
+      mapping,
       defaults: { distanceUnit: org.distanceUnit },
     });
   } finally {

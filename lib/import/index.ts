@@ -2,6 +2,7 @@
 export * from "./columns";
 export * from "./components";
 export * from "./csv-export";
+export * from "./date-order";
 export * from "./mapping";
 export * from "./read-options";
 export * from "./row-schemas";

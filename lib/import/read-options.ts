@@ -4,6 +4,13 @@
  */
 import type { ImportKind } from "@/db/schema/operations";
 import { IMPORT_COLUMNS, type ColumnType } from "./columns";
+import {
+  describeDateOrder,
+  detectDateOrder,
+  needsDateOrder,
+  type DateCell,
+  type DateOrder,
+} from "./date-order";
 import type { ColumnMapping } from "./mapping";
 import { normaliseHeader } from "./mapping";
 import {
@@ -27,6 +34,8 @@ export type ReadOptions = {
 export type DetectedReadOptions = {
   options: ReadOptions;
   reasons: string[];
+  /** Whether the file decides the order of its dates, or the user must (date-order.ts). */
+  dateOrder: DateOrder;
   isAmbiguous: { dateFormat: boolean; decimalSeparator: boolean };
 };
 
@@ -37,16 +46,6 @@ export const DEFAULT_READ_OPTIONS: ReadOptions = {
   distanceUnit: "mi",
   volumeUnit: "us-gal",
 };
-
-const DATE_WORDS: Record<DateFormat, string> = {
-  iso: "year-month-day",
-  mdy: "month/day/year",
-  dmy: "day/month/year",
-};
-
-export function describeDateFormat(format: DateFormat): string {
-  return DATE_WORDS[format];
-}
 
 const NUMERIC_TYPES: ReadonlySet<ColumnType> = new Set([
   "integer",
@@ -75,77 +74,24 @@ function sampleCells(
   return cells;
 }
 
-/** A leading date: first part, separator, second part (digits or a month word), third part. */
-const DATE_SHAPE = /^(\d{1,4})([/.-])(\d{1,2}|[A-Za-z]{3,9})\2(\d{2,4})(?:$|[ T])/;
-
-function detectDateFormat(
-  cells: readonly string[],
-  fallback: DateFormat,
-): { format: DateFormat; reason: string; isAmbiguous: boolean } {
-  const seen = { dayFirst: 0, monthFirst: 0, dots: 0, iso: 0, undecided: 0 };
-  let example = "";
-  for (const cell of cells) {
-    const m = DATE_SHAPE.exec(cell);
-    if (!m) continue;
-    const [, a = "", sep, b = ""] = m;
-    if (a.length === 4) {
-      seen.iso++;
-      continue;
-    }
-    if (!/^\d+$/.test(b)) continue; // month written as a word: no order to learn
-    if (Number(a) > 12) seen.dayFirst++;
-    else if (Number(b) > 12) seen.monthFirst++;
-    else if (sep === ".") seen.dots++;
-    else {
-      seen.undecided++;
-      example ||= cell;
+/** The sample cells of the mapped date and timestamp columns, with their headers. */
+function dateCells(
+  kind: ImportKind,
+  headers: readonly string[],
+  mapping: ColumnMapping,
+  rows: readonly (readonly string[])[],
+): DateCell[] {
+  const cells: DateCell[] = [];
+  for (const spec of IMPORT_COLUMNS[kind]) {
+    const at = mapping[spec.key];
+    if (typeof at !== "number" || (spec.type !== "date" && spec.type !== "timestamp")) continue;
+    const column = headers[at] ?? spec.key;
+    for (const row of rows) {
+      const value = row[at]?.trim();
+      if (value) cells.push({ column, value });
     }
   }
-  const counted = `${seen.dayFirst + seen.monthFirst + seen.dots + seen.undecided + seen.iso} sampled dates`;
-  if (seen.dayFirst > 0 && seen.monthFirst > 0) {
-    const format = seen.dayFirst >= seen.monthFirst ? "dmy" : "mdy";
-    return {
-      format,
-      isAmbiguous: true,
-      reason: `Dates disagree: ${seen.dayFirst} can only be day/month/year and ${seen.monthFirst} only month/day/year; reading them as ${DATE_WORDS[format]}. Check the file.`,
-    };
-  }
-  if (seen.dayFirst > 0) {
-    return {
-      format: "dmy",
-      isAmbiguous: false,
-      reason: `Dates are day/month/year: ${seen.dayFirst} of ${counted} have a first part above 12.`,
-    };
-  }
-  if (seen.monthFirst > 0) {
-    return {
-      format: "mdy",
-      isAmbiguous: false,
-      reason: `Dates are month/day/year: ${seen.monthFirst} of ${counted} have a second part above 12.`,
-    };
-  }
-  if (seen.dots > 0 && seen.undecided === 0) {
-    return {
-      format: "dmy",
-      isAmbiguous: false,
-      reason: "Dates are written with dots, read as day.month.year (common practice).",
-    };
-  }
-  if (seen.undecided > 0 || seen.dots > 0) {
-    return {
-      format: fallback === "iso" ? "mdy" : fallback,
-      isAmbiguous: true,
-      reason: `Dates such as ${example || "the ones sampled"} fit both day/month/year and month/day/year; reading them as ${DATE_WORDS[fallback === "iso" ? "mdy" : fallback]}. Check a few rows.`,
-    };
-  }
-  if (seen.iso > 0) {
-    return { format: "iso", isAmbiguous: false, reason: "Dates are year-month-day (ISO 8601)." };
-  }
-  return {
-    format: fallback,
-    isAmbiguous: false,
-    reason: `No dates to sample; reading dates as ${DATE_WORDS[fallback]}.`,
-  };
+  return cells;
 }
 
 type DecimalEvidence = "dot" | "comma" | "undecided";
@@ -265,9 +211,8 @@ function detectUnit<U extends string>(
 
 /**
  * Read options for a file from its headers, mapping and a sample of rows (a few hundred is
- * plenty). Dates: a first part above 12 means day-first, a second part above 12 month-first,
- * dots mean day.month.year, year-first means ISO; otherwise ambiguous and `defaults.dateFormat`
- * (else month/day/year) is used and said. Decimal separator: from numeric columns ("12,5" or
+ * plenty). Dates: see date-order.ts (a day above 12 decides; year-first is ISO; otherwise the
+ * user is asked, and `defaults.dateFormat`, else month/day/year, only fills the place). Decimal separator: from numeric columns ("12,5" or
  * "1.234,56" mean a comma; "1,234" alone decides nothing). Units: from a unit column, else
  * from words in the mapped header ("km", "miles", "litres", "gal"), else the defaults.
  */
@@ -285,10 +230,18 @@ export function detectReadOptions(
     const at = mapping[key];
     return typeof at === "number" ? headers[at] : undefined;
   };
-  const dates = detectDateFormat(
-    cellsOf((t) => t === "date" || t === "timestamp"),
-    base.dateFormat,
-  );
+  const dateOrder = detectDateOrder(dateCells(kind, headers, mapping, sampleRows));
+  // Where the file leaves the order open, the fallback is only a placeholder: the import does
+  // not start until the user chooses (needsDateOrder).
+  const fallback = base.dateFormat === "iso" ? "mdy" : base.dateFormat;
+  const dateFormat =
+    dateOrder.status === "decided"
+      ? dateOrder.format
+      : dateOrder.status === "iso"
+        ? "iso"
+        : dateOrder.status === "ask"
+          ? fallback
+          : base.dateFormat;
   const decimal = detectDecimalSeparator(
     cellsOf((t) => NUMERIC_TYPES.has(t)),
     base.decimalSeparator,
@@ -308,17 +261,18 @@ export function detectReadOptions(
     base.volumeUnit,
   );
   const hasType = (t: ColumnType) => IMPORT_COLUMNS[kind].some((c) => c.type === t);
-  const reasons = [dates.reason, decimal.reason];
+  const reasons = [describeDateOrder(dateOrder, dateFormat), decimal.reason];
   if (hasType("distance")) reasons.push(distance.reason);
   if (hasType("volume")) reasons.push(volume.reason);
   return {
     options: {
-      dateFormat: dates.format,
+      dateFormat,
       decimalSeparator: decimal.separator,
       distanceUnit: distance.unit,
       volumeUnit: volume.unit,
     },
     reasons,
-    isAmbiguous: { dateFormat: dates.isAmbiguous, decimalSeparator: decimal.isAmbiguous },
+    dateOrder,
+    isAmbiguous: { dateFormat: needsDateOrder(dateOrder), decimalSeparator: decimal.isAmbiguous },
   };
 }

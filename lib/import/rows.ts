@@ -10,8 +10,8 @@
  * - a malformed VIN → rejection when the row has no unit number, else a warning and the VIN
  *   left out; a placeholder VIN → warning, treated as missing; a wrong check digit → warning
  *   (49 CFR 565 binds North American vehicles only);
- * - more fields than headers → warning when the extra fields hold anything; fewer → the
- *   missing values are empty;
+ * - more fields than the header → rejection ("row has N fields, the header has M"); fewer →
+ *   the missing trailing fields are read as blanks, with a warning (", read as blank");
  * - a symptom column value Recurra does not know → warning, read from the complaint instead.
  *
  * Cell text is kept as written: a cell such as "=HYPERLINK(...)" is plain text here and is
@@ -24,7 +24,8 @@ import type { Powertrain } from "@/db/schema/catalogue";
 import { parseDtc, splitDtcList } from "@/lib/dtc";
 import { checkVin } from "@/lib/vin";
 import type { ColumnMapping } from "./mapping";
-import { describeDateFormat, type ReadOptions } from "./read-options";
+import { describeDateFormat } from "./date-order";
+import type { ReadOptions } from "./read-options";
 import {
   createRowSchema,
   type FaultRow,
@@ -692,17 +693,18 @@ export function createRowReader<K extends ImportKind>(
     if (isBlankRecord(record)) {
       return { ok: false, rowNumber, issues: [{ column: "", message: "The row is empty." }] };
     }
-    s.start(record);
-    const candidate = build();
+    // A field too many means the columns cannot be trusted (a stray delimiter): rejected. A
+    // shorter row is read as it is, the missing fields at its end as blanks (exports often
+    // drop trailing empty cells), with a warning.
     if (record.length > headerCount) {
-      const extra = record.slice(headerCount);
-      if (extra.some((cell) => cleanCell(cell) !== "")) {
-        s.warn(
-          "",
-          `The row has ${record.length} fields but the header has ${headerCount}; trailing columns ignored.`,
-        );
-      }
+      const message = `row has ${record.length} fields, the header has ${headerCount}`;
+      return { ok: false, rowNumber, issues: [{ column: "", message }] };
     }
+    s.start(record);
+    if (record.length < headerCount) {
+      s.warn("", `row has ${record.length} fields, the header has ${headerCount}, read as blank`);
+    }
+    const candidate = build();
     // zod's compiled validator answers yes or no without building a copy of the row (the
     // candidate is a fresh object with exactly the schema's fields, and no field transforms);
     // only a failing row is parsed again, for zod's issues.

@@ -1,3 +1,4 @@
+import type { Page } from "@playwright/test";
 import { expect, orgId, queryDb, screenshot, signIn, test } from "./support";
 
 const FIXTURE = "tests/fixtures/repairs-small.csv";
@@ -89,4 +90,62 @@ test("technicians and viewers cannot import", async ({ browser, baseURL }) => {
     expect(put.status(), role).toBe(403);
     await context.close();
   }
+});
+
+/** Uploads CSV text as repairs and waits for the mapping step. */
+async function uploadRepairs(page: Page, name: string, lines: string[]) {
+  await page.goto("/imports");
+  await page.getByLabel("What the file holds").selectOption("repairs");
+  await page.getByTestId("file-input").setInputFiles({
+    name,
+    mimeType: "text/csv",
+    buffer: Buffer.from(lines.join("\r\n")),
+  });
+  await page.getByRole("button", { name: "Upload and map columns" }).click();
+  await expect(page.getByRole("heading", { name: "Columns" })).toBeVisible();
+}
+
+test("dates that fit both orders: Start waits for the order, shown with three samples read both ways", async ({
+  page,
+}) => {
+  await signIn(page, "manager");
+  await uploadRepairs(page, "dates-either-way.csv", [
+    "RO #,Unit,Date In,Mileage,Complaint",
+    "E2E-D1,TP-0101,03/04/2026,249800,Noise",
+    "E2E-D2,TP-0101,05/06/2026,250100,Squeal",
+    "E2E-D3,TP-0102,07/08/2026,249600,Rattle",
+  ]);
+  const start = page.getByRole("button", { name: "Start import" });
+  const question = page.getByRole("group", { name: "Which way round are the dates?" });
+  await expect(question).toBeVisible();
+  await expect(
+    question.getByRole("list", { name: "Sample dates from the file" }).getByRole("listitem"),
+  ).toHaveText([
+    "Date In: 03/04/2026 → 3 April 2026 or 4 March 2026",
+    "Date In: 05/06/2026 → 5 June 2026 or 6 May 2026",
+    "Date In: 07/08/2026 → 7 August 2026 or 8 July 2026",
+  ]);
+  await expect(start).toBeDisabled();
+  await screenshot(page, "import-date-order-question");
+  // Chosen: Start is enabled and the preview reads the dates day first.
+  await question.getByRole("radio", { name: /Day first/ }).check();
+  await expect(start).toBeEnabled();
+  const preview = page.getByRole("region", { name: "First rows, as they will be read" });
+  await expect(preview.getByRole("cell", { name: "2026-04-03" })).toBeVisible();
+});
+
+test("a date with a day above 12 decides, and a notice above the preview says which date", async ({
+  page,
+}) => {
+  await signIn(page, "manager");
+  await uploadRepairs(page, "dates-day-first.csv", [
+    "RO #,Unit,Date In,Mileage,Complaint",
+    "E2E-N1,TP-0101,03/04/2026,249800,Noise",
+    "E2E-N2,TP-0101,13/04/2026,249900,Squeal",
+  ]);
+  const notice = page.getByRole("note", { name: "How dates are read" });
+  await expect(notice).toContainText("Dates are read day/month/year.");
+  await expect(notice).toContainText("“Date In” has 13/04/2026, which can only be 13 April 2026.");
+  await expect(page.getByRole("group", { name: "Which way round are the dates?" })).toHaveCount(0);
+  await expect(page.getByRole("button", { name: "Start import" })).toBeEnabled();
 });

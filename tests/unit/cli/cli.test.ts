@@ -1,5 +1,5 @@
 import { execFile } from "node:child_process";
-import { mkdtempSync } from "node:fs";
+import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { promisify } from "node:util";
@@ -178,4 +178,29 @@ describe("command line", () => {
     expect(r.code).not.toBe(0);
     expect(r.stderr).toMatch(/Allowed choices are admin, manager, technician, viewer/);
   });
+
+  test("import refuses dates that fit both orders without --date-order, and reads them with it", async () => {
+    expect((await recurra("org", "create", "date-vans", "--name", "Date Vans")).code).toBe(0);
+    const file = join(dir, "ambiguous.csv");
+    writeFileSync(
+      file,
+      [
+        "RO number,Unit,Opened,Odometer,Complaint,Make,Model,Year",
+        "D-1,DV-1,03/04/2025,41000,Noise,Aurel,Merlin,2021",
+        "D-2,DV-1,05/06/2025,43000,Squeal,Aurel,Merlin,2021",
+      ].join("\n"),
+    );
+    const args = ["import", "--org", "date-vans", "--kind", "repairs", file, "--json"];
+    const refused = await recurra(...args);
+    expect(refused.code).toBe(1);
+    const { ok, error } = json(refused.stdout);
+    expect(ok).toBe(false);
+    expect(error).toBe(
+      "The dates in “Opened” (for example 03/04/2025 and 05/06/2025) fit both day/month/year and month/day/year. Choose the order. Give --date-order dmy or --date-order mdy.",
+    );
+    // The refused import was cancelled: the same file can be imported again, with the order.
+    const done = await recurra(...args, "--date-order", "dmy");
+    expect(done.code).toBe(0);
+    expect(json(done.stdout)).toMatchObject({ ok: true, rows: 2, imported: 2, rejected: 0 });
+  }, 120_000);
 });

@@ -5,7 +5,8 @@ import {
   fingerprintValues,
   FingerprintSet,
 } from "@/jobs/import/fingerprint-set";
-import { dayNumber, OdometerChecks } from "@/jobs/import/odometer-checks";
+import { dayNumber, MAX_READINGS, OdometerChecks } from "@/jobs/import/odometer-checks";
+import { cleanOdometerReadings } from "@/lib/stats/clean-odometer-readings";
 
 describe("dayNumber", () => {
   test("agrees with Date.UTC (ECMA-262 MakeDay) on every day from 1899 to 2100", () => {
@@ -21,18 +22,97 @@ describe("dayNumber", () => {
   });
 });
 
+// Thresholds (20% or 10,000 mi below an earlier reading, 1,500 mi a day) are Recurra's rule
+// (jobs/import/odometer-checks.ts); "about 1.609" is NIST SP 811's 1 mi = 1.609344 km.
 describe("OdometerChecks", () => {
-  test("warns about backwards readings, jumps, km keyed as miles and absurd daily distances", () => {
+  test("a reading of 1,200 mi on a vehicle at about 170,000 mi is a warning", () => {
+    const checks = new OdometerChecks();
+    checks.seed("V1", "2025-05-01", 170_250);
+    expect(checks.check("V1", "2025-06-01", 1_200)).toBe(
+      "odometer goes backwards: 1,200 mi on 2025-06-01, below 170,250 mi on 2025-05-01",
+    );
+    // Not remembered: the next correct reading is judged against 170,250, and passes.
+    expect(checks.check("V1", "2025-06-10", 171_000)).toBeNull();
+  });
+
+  test("a normal progression gets none, in any row order, with repeats and small dips", () => {
     const checks = new OdometerChecks();
     checks.seed("V1", "2025-01-01", 40_000);
-    expect(checks.check("V1", "2025-02-01", 41_000)).toBeNull();
-    expect(checks.check("V1", "2025-02-10", 30_000)).toMatch(/goes backwards/);
-    expect(checks.check("V1", "2025-03-01", 410_000)).toMatch(/order of magnitude/);
+    const readings: [string, number][] = [
+      ["2025-02-01", 41_200],
+      ["2025-02-01", 41_200], // another line of the same repair order
+      ["2025-03-03", 42_350],
+      ["2025-02-15", 41_700], // a row out of date order
+      ["2025-04-01", 42_100], // 250 mi below an earlier reading: within 10,000 mi
+      ["2025-04-02", 43_600], // exactly 1,500 mi in a day
+    ];
+    for (const [on, mi] of readings) expect(checks.check("V1", on, mi), on).toBeNull();
+  });
+
+  test("more than 1,500 mi a day from the reading before or after is a warning", () => {
+    const checks = new OdometerChecks();
+    checks.seed("V1", "2025-01-01", 40_000);
+    expect(checks.check("V1", "2025-01-02", 41_501)).toBe(
+      "odometer implies 1,501 mi a day since 40,000 mi on 2025-01-01",
+    );
+    expect(checks.check("V1", "2025-01-11", 43_000)).toBeNull();
+    // Dated between two readings, 3,000 mi short of the one a day later.
+    expect(checks.check("V1", "2025-01-10", 40_000)).toBe(
+      "odometer implies 3,000 mi a day until 43,000 mi on 2025-01-11",
+    );
+  });
+
+  test("below an earlier reading: more than 20% or 10,000 mi, whichever is larger", () => {
+    const checks = new OdometerChecks();
+    checks.seed("LOW", "2024-01-01", 30_000);
+    expect(checks.check("LOW", "2025-01-01", 20_000)).toBeNull(); // 10,000 below: not more
+    expect(checks.check("LOW", "2025-01-02", 19_900)).toMatch(/goes backwards/);
+    checks.seed("HIGH", "2024-01-01", 170_000);
+    expect(checks.check("HIGH", "2025-01-01", 136_000)).toBeNull(); // 20% below: not more
+    expect(checks.check("HIGH", "2025-01-02", 135_900)).toMatch(/below 170,000 mi on 2024-01-01/);
+  });
+
+  test("a typed-twice digit and kilometres keyed as miles are warnings", () => {
+    const checks = new OdometerChecks();
+    checks.seed("V1", "2025-01-01", 40_000);
+    expect(checks.check("V1", "2027-01-01", 410_000)).toMatch(/order of magnitude/);
     // 41,000 mi × 1.609344 ≈ 65,983: the same distance keyed in kilometres.
-    expect(checks.check("V1", "2025-03-02", 65_983)).toMatch(/1\.609/);
-    expect(checks.check("V1", "2025-02-03", 60_000)).toMatch(/mi a day/);
-    // An older reading than the latest one is not judged.
-    expect(checks.check("V1", "2024-12-01", 10)).toBeNull();
+    expect(checks.check("V1", "2025-02-01", 41_000)).toBeNull();
+    expect(checks.check("V1", "2025-03-01", 65_983)).toMatch(/1\.609/);
+  });
+
+  test("memory stays bounded: past MAX_READINGS a vehicle's oldest readings are folded", () => {
+    const checks = new OdometerChecks();
+    const day = (n: number) => new Date(Date.UTC(2000, 0, 1 + n)).toISOString().slice(0, 10);
+    for (let n = 0; n < MAX_READINGS * 2; n++) {
+      expect(checks.check("V1", day(n), 10_000 + n * 20)).toBeNull();
+    }
+    // Judged against the folded readings' highest still; older than them: not judged.
+    expect(checks.check("V1", day(MAX_READINGS * 2 + 1), 100)).toMatch(/goes backwards/);
+    expect(checks.check("V1", day(10), 1)).toBeNull();
+  });
+
+  test("a warned backwards reading is left out of exposure by the cleaning rule", () => {
+    // lib/stats/clean-odometer-readings.ts drops backwards readings; this shows that a reading
+    // the import warns about is among those it drops.
+    const file: [string, number][] = [
+      ["2025-03-01", 168_000],
+      ["2025-04-01", 169_400],
+      ["2025-05-01", 1_200],
+      ["2025-06-01", 171_900],
+    ];
+    const checks = new OdometerChecks();
+    checks.seed("V1", "2025-02-01", 166_500);
+    const warned = file.filter(([on, mi]) => checks.check("V1", on, mi) !== null);
+    expect(warned).toEqual([["2025-05-01", 1_200]]);
+    const { kept, ignored } = cleanOdometerReadings(
+      [["2025-02-01", 166_500] as [string, number], ...file].map(([at, odometer]) => ({
+        at,
+        odometer,
+      })),
+    );
+    expect(ignored).toBe(1);
+    expect(kept.map((k) => k.odometer)).toEqual([166_500, 168_000, 169_400, 171_900]);
   });
 });
 

@@ -24,40 +24,45 @@ const repairRows = (dates: string[], numbers: string[] = ["1.5"]) =>
   });
 
 describe("date format", () => {
-  test("a first part above 12 means day-first", () => {
+  test("a first part above 12 decides day-first, and the reason names the column and value", () => {
     // common practice
     const r = detect(REPAIR_HEADERS, repairRows(["03/04/2024", "25/04/2024"]));
     expect(r.options.dateFormat).toBe("dmy");
     expect(r.isAmbiguous.dateFormat).toBe(false);
+    expect(r.dateOrder).toMatchObject({ status: "decided", format: "dmy", count: 1 });
+    expect(r.reasons[0]).toBe(
+      "Dates are read day/month/year: “Date In” has 25/04/2024, which can only be 25 April 2024.",
+    );
   });
 
-  test("a second part above 12 means month-first", () => {
+  test("a second part above 12 decides month-first", () => {
     // common practice
     const r = detect(REPAIR_HEADERS, repairRows(["03/04/2024", "04/25/2024"]));
     expect(r.options.dateFormat).toBe("mdy");
     expect(r.isAmbiguous.dateFormat).toBe(false);
+    expect(r.reasons[0]).toMatch(/“Date In” has 04\/25\/2024, which can only be 25 April 2024/);
   });
 
-  test("dots mean day.month.year", () => {
-    // common practice (continental Europe)
-    const r = detect(REPAIR_HEADERS, repairRows(["03.04.2024", "05.06.2024"]));
-    expect(r.options.dateFormat).toBe("dmy");
-    expect(r.reasons[0]).toMatch(/dots/);
-  });
-
-  test("year-first dates are ISO", () => {
+  test("year-first dates are ISO, never ambiguous", () => {
     // ISO 8601
-    const r = detect(REPAIR_HEADERS, repairRows(["2024-04-03", "2024-12-25"]));
+    const r = detect(REPAIR_HEADERS, repairRows(["2024-04-03", "2024-12-05"]));
     expect(r.options.dateFormat).toBe("iso");
     expect(r.isAmbiguous.dateFormat).toBe(false);
+    expect(r.dateOrder).toEqual({ status: "iso" });
   });
 
-  test("undecidable slashes default to month/day/year and say so", () => {
-    // Recurra's rule
-    const r = detect(REPAIR_HEADERS, repairRows(["03/04/2024", "05/06/2024"]));
-    expect(r.options.dateFormat).toBe("mdy");
-    expect(r.isAmbiguous.dateFormat).toBe(true);
-    expect(r.reasons[0]).toMatch(/03\/04\/2024 fit both/);
+  test("dates that fit both orders are a question, slashes or dots alike; the default only fills the place", () => {
+    // Recurra's rule: never a guess (the import issue)
+    for (const dates of [
+      ["03/04/2024", "05/06/2024"],
+      ["03.04.2024", "05.06.2024"],
+    ]) {
+      const r = detect(REPAIR_HEADERS, repairRows(dates));
+      expect(r.isAmbiguous.dateFormat, dates[0]).toBe(true);
+      expect(r.dateOrder.status, dates[0]).toBe("ask");
+      expect(r.options.dateFormat).toBe("mdy");
+      expect(r.reasons[0]).toMatch(/fit both day\/month\/year and month\/day\/year/);
+    }
     const org = detectReadOptions(
       "repairs",
       REPAIR_HEADERS,
@@ -66,13 +71,17 @@ describe("date format", () => {
       { dateFormat: "dmy" },
     );
     expect(org.options.dateFormat).toBe("dmy");
+    expect(org.dateOrder.status).toBe("ask");
   });
 
-  test("contradicting dates are flagged", () => {
+  test("contradicting dates are a question too", () => {
     // Recurra's rule
     const r = detect(REPAIR_HEADERS, repairRows(["25/04/2024", "04/25/2024", "26/04/2024"]));
-    expect(r.options.dateFormat).toBe("dmy");
     expect(r.isAmbiguous.dateFormat).toBe(true);
+    expect(r.dateOrder).toMatchObject({ status: "ask", isConflict: true });
+    expect(r.reasons[0]).toMatch(
+      /^Dates disagree: “Date In” \(for example 25\/04\/2024 and 04\/25\/2024\)/,
+    );
   });
 });
 

@@ -280,28 +280,34 @@ describe("repairs", () => {
     expect(row.componentText).toBe("=1+1");
   });
 
-  test("too many fields: a warning when the extra fields hold anything", () => {
-    // Recurra's rule
+  test("too many fields reject the row, even empty ones: the columns cannot be trusted", () => {
+    // Recurra's rule (the import issue: a stray delimiter shifts every value after it)
     const extra = readRepair([...repairRecord(), "surprise", ""], 2);
-    expect(extra.ok && extra.warnings).toEqual([
-      {
-        column: "",
-        message: "The row has 16 fields but the header has 14; trailing columns ignored.",
-      },
+    expect(issuesOf(extra)).toEqual([
+      { column: "", message: "row has 16 fields, the header has 14" },
     ]);
     const emptyExtra = readRepair([...repairRecord(), "", " "], 2);
-    expect(emptyExtra.ok && emptyExtra.warnings).toEqual([]);
+    expect(messages(issuesOf(emptyExtra))).toEqual(["row has 16 fields, the header has 14"]);
+    const exact = readRepair(repairRecord(), 2);
+    expect(exact.ok && exact.warnings).toEqual([]);
   });
 
-  test("too few fields: missing optional values are null, a missing required one rejects", () => {
-    // Recurra's rule
-    const short = rowOf(readRepair(repairRecord().slice(0, 6), 2));
+  test("too few fields: read as blanks with a warning; a missing required one rejects", () => {
+    // Recurra's rule (exports drop trailing empty cells)
+    const result = readRepair(repairRecord().slice(0, 6), 2);
+    const short = rowOf(result);
     expect(short.complaint).toBeNull();
     expect(short.dtcCodes).toEqual([]);
     expect(short.isWarranty).toBe(false);
     expect(short.symptom).toBeNull();
+    expect(result.ok && result.warnings).toEqual([
+      { column: "", message: "row has 6 fields, the header has 14, read as blank" },
+    ]);
     const tooShort = issuesOf(readRepair(repairRecord().slice(0, 3), 2));
-    expect(tooShort).toEqual([{ column: "opened_on", message: "opened_on: a value is required" }]);
+    expect(tooShort).toEqual([
+      { column: "opened_on", message: "opened_on: a value is required" },
+      { column: "", message: "row has 3 fields, the header has 14, read as blank" },
+    ]);
   });
 
   test("placeholder words count as empty", () => {

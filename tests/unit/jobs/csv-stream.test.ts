@@ -56,3 +56,36 @@ describe("recordBatches", () => {
     expect(seen.length).toBeLessThan(5_000);
   });
 });
+
+describe("line endings", () => {
+  // RFC 4180 ends records with CRLF; files also come with LF, and a lone CR slips into CRLF
+  // files (common practice). Recurra's rule: each of the three ends a record outside quotes.
+  const read = async (text: string, piece: number) => {
+    const records: string[][] = [];
+    const parser = source(text, piece).pipe(parse(importParseOptions(",")));
+    for await (const batch of recordBatches(parser)) records.push(...batch);
+    return records;
+  };
+
+  it("a lone CR between two rows of a CRLF file ends a record: two rows, not one", async () => {
+    const text = "unit,odometer\r\nU-1,41000\rU-2,52000\r\n";
+    // One byte at a time too: a CR at the end of a piece may be the first half of a CRLF.
+    for (const piece of [1, 7, 1024]) {
+      expect(await read(text, piece)).toEqual([
+        ["unit", "odometer"],
+        ["U-1", "41000"],
+        ["U-2", "52000"],
+      ]);
+    }
+  });
+
+  it("CRLF ends one record, not two; a lone LF ends one too; CR and LF inside quotes stay", async () => {
+    const text = 'a,b\r\n1,"x\ry"\n2,"p\r\nq"\r\n3,4';
+    expect(await read(text, 3)).toEqual([
+      ["a", "b"],
+      ["1", "x\ry"],
+      ["2", "p\r\nq"],
+      ["3", "4"],
+    ]);
+  });
+});

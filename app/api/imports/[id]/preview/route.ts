@@ -30,7 +30,7 @@ export const POST = apiRoute<{ id: string }>("imports:write", async (req, auth, 
   if (!body.success) return jsonError(400, "Invalid mapping.", body.error.issues);
   const db = await getDb();
   const imp = await getImport(db, auth, id.data.id);
-  const inspection = await inspectStoredImport(db, auth, id.data.id);
+  const inspection = await inspectStoredImport(db, auth, id.data.id, body.data.mapping);
   let mapping;
   try {
     mapping = mappingToIndexes(inspection.headers, body.data.mapping);
@@ -38,8 +38,14 @@ export const POST = apiRoute<{ id: string }>("imports:write", async (req, auth, 
     return jsonError(400, (e as Error).message);
   }
   const problems = validateMapping(imp.kind, inspection.headers, mapping);
+  // Until an open date order is chosen, the rows show the placeholder order (the screen says so).
+  const read = {
+    ...body.data.read,
+    dateFormat: body.data.read.dateFormat ?? inspection.read.dateFormat,
+  };
   return Response.json({
     problems,
-    rows: problems.length ? [] : previewRows(imp.kind, inspection, mapping, body.data.read),
+    dateOrder: inspection.dateOrder,
+    rows: problems.length ? [] : previewRows(imp.kind, inspection, mapping, read),
   });
 });

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { getImport, startImport } from "@/db/queries/imports";
 import { mappingToIndexes } from "@/jobs/import/run-import";
+import { resolveDateFormat } from "@/jobs/import/inspect";
 import { inspectStoredImport } from "@/jobs/import/upload";
 import { apiRoute, jsonError } from "@/lib/auth/guard";
 import { validateMapping } from "@/lib/import";
@@ -16,9 +17,12 @@ export const POST = apiRoute<{ id: string }>("imports:write", async (req, auth, 
   if (!body.success) return jsonError(400, "Invalid mapping.", body.error.issues);
   const db = await getDb();
   const imp = await getImport(db, auth, id.data.id);
-  const inspection = await inspectStoredImport(db, auth, id.data.id);
+  const inspection = await inspectStoredImport(db, auth, id.data.id, body.data.mapping);
   const fileProblems = inspection.problems.filter((p) => !/column|required|mapped|header/i.test(p));
   if (fileProblems.length) return jsonError(422, fileProblems.join(" "));
+  // Dates that fit both day/month and month/day need the user's choice: never a guess.
+  const dates = resolveDateFormat(inspection, body.data.read.dateFormat);
+  if (!dates.ok) return jsonError(400, dates.message);
   let problems: string[];
   try {
     problems = validateMapping(
@@ -35,7 +39,7 @@ export const POST = apiRoute<{ id: string }>("imports:write", async (req, auth, 
     delimiter: inspection.delimiter,
     headers: inspection.headers,
     mapping: body.data.mapping,
-    read: body.data.read,
+    read: { ...body.data.read, dateFormat: dates.dateFormat },
   });
   return Response.json({ importId: id.data.id, jobId, status: "queued" }, { status: 202 });
 });
