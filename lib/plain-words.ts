@@ -155,11 +155,17 @@ export function describeExpected(f: {
   return `${head} (likely ${formatPlain(f.lower)} to ${formatPlain(f.upper)})`;
 }
 
+/** "a" or "an" before a percentage as it is read aloud: "an 8%", "an 11%", "a 38%". */
+function articleFor(percent: string): "a" | "an" {
+  return /^(8|11(?![\d])|18(?![\d]))/.test(percent) ? "an" : "a";
+}
+
 /**
  * An expected count over a horizon with its interval, read one way: below one, the chance of at
- * least one with its likely range as chances too ("about a 38% chance of a failure, likely
- * between 18% and 50%": 1 − e^−λ rises with λ, so each bound maps to a bound); from one up, as
- * describeExpected ("about 3.2 failures (likely 1.1 to 6.4)").
+ * least one (Poisson: 1 − e^−λ) with its likely range as chances too ("about a 38% chance of a
+ * failure, likely between 18% and 50%": 1 − e^−λ rises with λ, so each bound maps to a bound;
+ * "under a 0.1% chance …", "likely under 2%" at the small end); from one up, as describeExpected
+ * ("about 3.2 failures (likely 1.1 to 6.4)").
  */
 export function describeOutlook(f: {
   expected: number;
@@ -167,10 +173,22 @@ export function describeOutlook(f: {
   upper: number | null;
   noun: [singular: string, plural?: string];
 }): string {
-  if (!(f.expected > 0) || f.expected >= 1 || f.lower === null || f.upper === null)
-    return describeExpected(f);
-  const chance = (l: number) => formatPercent(1 - Math.exp(-Math.max(0, l)));
-  return `${describeExpected({ expected: f.expected, noun: f.noun })}, likely between ${chance(f.lower)} and ${chance(f.upper)}`;
+  const e = f.expected;
+  if (!(e > 0) || e >= 1) return describeExpected(f);
+  const [singular] = f.noun;
+  const chanceOf = (l: number) => 1 - Math.exp(-Math.max(0, l));
+  const what = `${/^[aeiou]/i.test(singular) ? "an" : "a"} ${singular}`;
+  const p = chanceOf(e);
+  const pct = formatPercent(p);
+  const head =
+    p < 0.001
+      ? `under a 0.1% chance of ${what}`
+      : `about ${articleFor(pct)} ${pct} chance of ${what}`;
+  if (f.lower === null || f.upper === null) return head;
+  const [lo, hi] = [chanceOf(f.lower), chanceOf(f.upper)];
+  if (hi < 0.001) return head;
+  if (lo < 0.001) return `${head}, likely under ${formatPercent(hi)}`;
+  return `${head}, likely between ${formatPercent(lo)} and ${formatPercent(hi)}`;
 }
 
 /**

@@ -128,6 +128,20 @@ describe("plain words for figures", () => {
     expect(describeOutlook({ expected: 0, lower: 0, upper: 0, noun: ["failure"] })).toBe(
       "no failures expected",
     );
+    // "an" where the percentage is read with a vowel: 1 − e^−0.08 = 0.0769, 1 − e^−0.12 = 0.113.
+    expect(describeOutlook({ expected: 0.08, lower: null, upper: null, noun: ["failure"] })).toBe(
+      "about an 8% chance of a failure",
+    );
+    expect(describeOutlook({ expected: 0.12, lower: null, upper: null, noun: ["issue"] })).toBe(
+      "about an 11% chance of an issue",
+    );
+    // The small end: under 0.1% is said so, never "a under 0.1%" (1 − e^−0.02 = 0.0198).
+    expect(describeOutlook({ expected: 0.0004, lower: 0, upper: 0.02, noun: ["failure"] })).toBe(
+      "under a 0.1% chance of a failure, likely under 2%",
+    );
+    expect(
+      describeOutlook({ expected: 0.02, lower: 0.00001, upper: 0.05, noun: ["failure"] }),
+    ).toBe("about a 2% chance of a failure, likely under 5%");
   });
 
   test("events against chance read as times what chance predicts, never as a bare ratio", () => {
