@@ -111,6 +111,20 @@ test("home: a manager sees the vehicles most at risk; a technician the lookup; a
   await expect(list.getByRole("listitem").first()).toContainText(/likely/);
   await expect(page.getByText(`${Math.round(api.confidence * 100)}% confidence`)).toBeVisible();
   expect((await page.request.get("/api/at-risk?limit=0")).status()).toBe(400);
+
+  // The new signals and top failures: faults by name, ratios in words, the p-value one click away.
+  for (const name of [/^New signals \(\d+\)$/, "Top recurring failures"]) {
+    const panel = page.getByRole("region", { name });
+    const first = panel.getByRole("listitem").first();
+    await expect(first).toContainText(/\d+ repairs?, (about|no repairs of this)/);
+    await expect(first).toContainText(/the rest of the fleet/);
+    await expect(first.getByRole("link")).not.toHaveText(/[a-z]+-[a-z-]+\/[a-z]/);
+    const figures = first.locator("[data-figure-details]");
+    await expect(figures.getByText("p (exact test of the ratio)")).toBeHidden();
+    await figures.locator("summary").click();
+    await expect(figures.getByText("p (exact test of the ratio)")).toBeVisible();
+    await expect(figures).not.toContainText(/\de-\d|∞/);
+  }
   await manager.close();
 
   for (const [role, link] of [
