@@ -18,6 +18,7 @@ import {
   type FaultStatus,
   type Symptom,
 } from "@/db/schema";
+import type { AnalysedKind } from "@/lib/component-kinds";
 import { cleanOdometerReadings } from "@/lib/stats";
 import { assertCan, countRows, orgWhere, type OrgScope } from "./scope";
 
@@ -109,6 +110,8 @@ export type MatchedPattern = {
   bandToMi: number;
   /** "dtc:P0496" or "component:fuel-vapour/purge-valve", as the pattern drill-down takes it. */
   faultKey: string;
+  /** Failure or wear: which repair lines the cell counts (wear is shown as wear). */
+  kind: AnalysedKind;
   dtc: string | null;
   dtcDescription: string | null;
   componentSlug: string | null;
@@ -126,6 +129,8 @@ export type MatchedPattern = {
   rateRatio: number | null;
   ratioLower: number | null;
   ratioUpper: number | null;
+  /** Exact test of the ratio (two-sided), and its false-discovery q-value. */
+  pValue: number | null;
   qValue: number | null;
   isSignal: boolean;
   position: BandPosition;
@@ -484,6 +489,7 @@ async function listMatchedPatterns(
       rateRatio: cellStats.rateRatio,
       ratioLower: cellStats.ratioLower,
       ratioUpper: cellStats.ratioUpper,
+      pValue: cellStats.pValue,
       qValue: cellStats.qValue,
       isSignal: cellStats.isSignal,
     })
@@ -517,6 +523,8 @@ async function listMatchedPatterns(
         cell.dtc === null ? 0 : (input.faultEventsByDtc.get(cell.dtc) ?? 0);
       return {
         ...cell,
+        // Cells are computed for failure and wear lines only; service is never a pattern.
+        kind: cell.kind === "wear" ? "wear" : "failure",
         position: bandPosition(vehicle.currentOdometerMi, cell.bandFromMi, cell.bandToMi),
         vehicleRepairs: onFault.length,
         vehicleRepairsInBand: inBand.length,

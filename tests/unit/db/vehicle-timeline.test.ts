@@ -194,6 +194,24 @@ describe("patterns the vehicle matches", () => {
     expect(purge?.bandToMi).toBeGreaterThan(purge!.bandFromMi);
   });
 
+  test("each pattern carries its kind and its cell's p- and q-value for the details", async () => {
+    for (const p of k2Timeline.patterns) {
+      expect(["failure", "wear"]).toContain(p.kind);
+      const [cell] = await rows<{ kind: string; p_value: number | null; q_value: number | null }>(
+        `select kind, p_value, q_value from cell_stats
+          where organisation_id = ? and make = ? and model = ? and cohort_label = ?
+            and band_index = ? and fault_key = ?`,
+        [scopes.tidewater!.organisationId, p.make, p.model, p.cohortLabel, p.bandIndex, p.faultKey],
+      );
+      expect(p.kind).toBe(cell?.kind);
+      expect(p.pValue).toBe(cell?.p_value);
+      expect(p.qValue).toBe(cell?.q_value);
+    }
+    const purge = k2Timeline.patterns.find((p) => p.faultKey === "dtc:P0496");
+    expect(purge?.kind).toBe("failure");
+    expect(purge?.pValue).toBeLessThan(0.05);
+  });
+
   test("position and the vehicle's own history agree with its records", async () => {
     const odometer = k2Timeline.vehicle.currentOdometerMi;
     expect(odometer).not.toBeNull();
