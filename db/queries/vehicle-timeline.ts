@@ -19,6 +19,7 @@ import {
   type Symptom,
 } from "@/db/schema";
 import type { AnalysedKind } from "@/lib/component-kinds";
+import { faultName } from "@/lib/plain-words";
 import { cleanOdometerReadings } from "@/lib/stats";
 import { assertCan, countRows, orgWhere, type OrgScope } from "./scope";
 
@@ -45,6 +46,8 @@ export type TimelineRepairLine = {
   correction: string | null;
   /** The line's DTCs, one each (from repair_line_codes). */
   dtcs: string[];
+  /** The same DTCs by name: "P0496 — Purge flow …" (the code alone when not in the catalogue). */
+  dtcNames: string[];
   componentId: number | null;
   componentSlug: string | null;
   componentSystem: string | null;
@@ -280,8 +283,13 @@ export async function getVehicleTimeline(
           asc(visibleRepairLines.id),
         ),
       db
-        .select({ lineId: visibleRepairLineCodes.repairLineId, dtc: visibleRepairLineCodes.dtc })
+        .select({
+          lineId: visibleRepairLineCodes.repairLineId,
+          dtc: visibleRepairLineCodes.dtc,
+          description: dtcCodes.description,
+        })
         .from(visibleRepairLineCodes)
+        .leftJoin(dtcCodes, eq(dtcCodes.code, visibleRepairLineCodes.dtc))
         .where(orgWhere(visibleRepairLineCodes, scope, ofVehicle(visibleRepairLineCodes.vehicleId)))
         .orderBy(asc(visibleRepairLineCodes.id)),
       db
@@ -379,9 +387,16 @@ export async function getVehicleTimeline(
     ),
   ]);
 
-  const codesByLine = new Map<number, string[]>();
-  for (const c of codes) codesByLine.set(c.lineId, [...(codesByLine.get(c.lineId) ?? []), c.dtc]);
-  const datedLines = lines.map((l) => ({ ...l, dtcs: codesByLine.get(l.id) ?? [] }));
+  const codesByLine = new Map<number, typeof codes>();
+  for (const c of codes) codesByLine.set(c.lineId, [...(codesByLine.get(c.lineId) ?? []), c]);
+  const datedLines = lines.map((l) => {
+    const own = codesByLine.get(l.id) ?? [];
+    return {
+      ...l,
+      dtcs: own.map((c) => c.dtc),
+      dtcNames: own.map((c) => faultName({ dtc: c.dtc, dtcDescription: c.description })),
+    };
+  });
   faults.reverse();
   fills.reverse();
   readings.reverse();

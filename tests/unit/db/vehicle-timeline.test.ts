@@ -82,11 +82,16 @@ describe("getVehicleTimeline", () => {
   test("repair lines carry their order, codes and component", async () => {
     const withCodes = k2Timeline.repairLines.find((l) => l.dtcs.length > 0);
     expect(withCodes).toBeDefined();
-    const stored = await rows<{ dtc: string }>(
-      "select dtc from repair_line_codes where repair_line_id = ? order by id",
+    const stored = await rows<{ dtc: string; description: string | null }>(
+      `select c.dtc, d.description from repair_line_codes c left join dtc_codes d on d.code = c.dtc
+        where c.repair_line_id = ? order by c.id`,
       [withCodes!.id],
     );
     expect(withCodes!.dtcs).toEqual(stored.map((r) => r.dtc));
+    // The same codes by name, for the records table.
+    expect(withCodes!.dtcNames).toEqual(
+      stored.map((r) => (r.description ? `${r.dtc} — ${r.description}` : r.dtc)),
+    );
     const [order] = await rows<{ ro_number: string }>(
       "select o.ro_number from repair_orders o join repair_lines l on l.repair_order_id = o.id where l.id = ?",
       [withCodes!.id],
