@@ -109,7 +109,11 @@ test("home: a manager sees the vehicles most at risk; a technician the lookup; a
   expect(top!.expectedLower).not.toBeNull();
   await expect(list.getByRole("listitem").first().getByTestId("expected")).toHaveText(OUTLOOK);
   await expect(list.getByRole("listitem").first()).toContainText(/likely/);
-  await expect(page.getByText(`${Math.round(api.confidence * 100)}% confidence`)).toBeVisible();
+  await expect(
+    page
+      .getByRole("region", { name: "Vehicles at risk" })
+      .getByText(`${Math.round(api.confidence * 100)}% confidence`),
+  ).toBeVisible();
   expect((await page.request.get("/api/at-risk?limit=0")).status()).toBe(400);
 
   // The new signals and top failures: faults by name, ratios in words, the p-value one click away.
