@@ -9,6 +9,7 @@ import { basename } from "node:path";
 import { Command, Option } from "commander";
 import { getStockingPlan } from "@/db/queries/stocking";
 import { sendDigest } from "./digest/digest";
+import { demandKinds } from "@/lib/stocking";
 import { StockingQuery } from "@/lib/stocking-request";
 import { z } from "zod";
 import { getDatabase } from "@/db";
@@ -497,6 +498,8 @@ export function buildProgram(): Command {
             stockLevel: p.stockLevel,
             onHand: p.onHand,
             reorder: p.reorder,
+            /** The kinds of work behind the demand, largest first: "failure+service". */
+            demandKind: demandKinds(p.demandByKind).join("+"),
           }));
           return {
             data,

@@ -4,6 +4,10 @@ import { gammaSumInterval } from "@/lib/stats";
 /** The watch-list's default horizon: the next 10,000 of the organisation's unit (mi or km). */
 export const AT_RISK_HORIZON = 10_000;
 
+/** How the watch-list's figures are worked out, for their details. */
+export const AT_RISK_METHOD =
+  "Expected failures: the cohort's rate in each mileage band (its shrunk estimate) × the miles the vehicle will drive in that band. Interval: the rates' gamma posteriors, summed over those bands. Chance of at least one: 1 − e^−expected (Poisson).";
+
 /** The miles a vehicle will drive in each mileage band over its next `nextMiles`. */
 export function milesByBand(
   odometerMi: number,

@@ -1,4 +1,5 @@
 import { findComebacks, type ComebackWindow, type RepairVisit } from "@/lib/comebacks";
+import { faultName } from "@/lib/plain-words";
 import { wilsonInterval } from "@/lib/stats";
 
 /**
@@ -19,8 +20,17 @@ import { wilsonInterval } from "@/lib/stats";
  *   clear codes / no fault found, service), else "other". Recurra records no labour operation
  *   code on a repair line, so the correction text is the only description of what was done.
  * - **Job type** = the component's system (or "Codes only").
- * Rates carry the Wilson score interval (Wilson 1927; statistics.md §1).
+ * Rates carry the Wilson score interval (Wilson 1927; statistics.md §1) at `confidence` (the
+ * organisation's level; 95% by default). Faults are named as people name them: a DTC with its
+ * description when `dtcDescriptions` has it, a component as "System → Name".
  */
+
+export type ComebackOptions = {
+  /** Level of every rate's interval (default 0.95). */
+  confidence?: number;
+  /** DTC → its description, for the fault names. */
+  dtcDescriptions?: ReadonlyMap<string, string>;
+};
 
 export type ComebackLine = {
   id: number;
@@ -51,7 +61,7 @@ export type ComebackRate = {
 };
 
 export type ComebackPair = {
-  /** Faults the two visits share, as labels ("P0496", "Fuel vapour → Purge valve"). */
+  /** Faults the two visits share, by name ("P0496 — Purge flow …", "Fuel vapour → Purge valve"). */
   faults: string[];
   first: ComebackLine;
   again: ComebackLine;
@@ -119,10 +129,16 @@ export function jobTypeOf(line: ComebackLine): string {
 const DAY_MS = 86_400_000;
 const SEP = "\u0000";
 
-function rateOf(key: string, label: string, repairs: number, comebacks: number): ComebackRate {
+function rateOf(
+  key: string,
+  label: string,
+  repairs: number,
+  comebacks: number,
+  confidence: number,
+): ComebackRate {
   if (repairs === 0)
     return { key, label, repairs, comebacks, rate: null, lower: null, upper: null };
-  const w = wilsonInterval(comebacks, repairs);
+  const w = wilsonInterval(comebacks, repairs, confidence);
   return { key, label, repairs, comebacks, rate: w.estimate, lower: w.lower, upper: w.upper };
 }
 
@@ -130,7 +146,9 @@ export function analyseComebacks(
   lines: readonly ComebackLine[],
   window: ComebackWindow,
   asOf: string | null = null,
+  opts: ComebackOptions = {},
 ): ComebackAnalysis {
+  const confidence = opts.confidence ?? 0.95;
   const withFault = lines.filter((l) => faultKeysOf(l).length > 0);
   const noFault = lines.length - withFault.length;
   const faultLabel = new Map<string, string>();
@@ -143,7 +161,12 @@ export function analyseComebacks(
       list.push(l);
       linesOfFault.set(k, list);
       if (!faultLabel.has(k))
-        faultLabel.set(k, k.startsWith("dtc:") ? k.slice(4) : componentLabel(l.component!));
+        faultLabel.set(
+          k,
+          k.startsWith("dtc:")
+            ? faultName({ dtc: k.slice(4), dtcDescription: opts.dtcDescriptions?.get(k.slice(4)) })
+            : componentLabel(l.component!),
+        );
     }
   }
   const byId = new Map(withFault.map((l) => [l.id, l]));
@@ -191,7 +214,7 @@ export function analyseComebacks(
       if (outcome(l)) t.comebacks++;
       out.set(key, t);
     }
-    return [...out].map(([key, t]) => rateOf(key, t.label, t.repairs, t.comebacks));
+    return [...out].map(([key, t]) => rateOf(key, t.label, t.repairs, t.comebacks, confidence));
   };
   // Per fault the outcome is that fault's own: did this fault come back?
   const byFault = [...linesOfFault].map(([fault, list]) => {
@@ -202,7 +225,7 @@ export function analyseComebacks(
       visits.set(visit, cameBack.has(`${visit}|${fault}`));
     }
     const back = [...visits.values()].filter(Boolean).length;
-    return rateOf(fault, faultLabel.get(fault)!, visits.size, back);
+    return rateOf(fault, faultLabel.get(fault)!, visits.size, back, confidence);
   });
   const orNot = (s: string | null, none: string) => (s && s.trim() ? s.trim() : none);
   const comebacks = counted.filter(outcome).length;
@@ -214,7 +237,7 @@ export function analyseComebacks(
     asOf,
     repairs: counted.length,
     comebacks,
-    overall: rateOf("all", "All repairs", counted.length, comebacks),
+    overall: rateOf("all", "All repairs", counted.length, comebacks, confidence),
     noFault,
     stillOpen,
     byFault: byFault.filter((r) => r.repairs > 0).sort(byRate),

@@ -155,6 +155,108 @@ export function describeExpected(f: {
   return `${head} (likely ${formatPlain(f.lower)} to ${formatPlain(f.upper)})`;
 }
 
+/** "a" or "an" before a percentage as it is read aloud: "an 8%", "an 11%", "a 38%". */
+function articleFor(percent: string): "a" | "an" {
+  return /^(8|11(?![\d])|18(?![\d]))/.test(percent) ? "an" : "a";
+}
+
+/**
+ * An expected count over a horizon with its interval, read one way: below one, the chance of at
+ * least one (Poisson: 1 − e^−λ) with its likely range as chances too ("about a 38% chance of a
+ * failure, likely between 18% and 50%": 1 − e^−λ rises with λ, so each bound maps to a bound;
+ * "under a 0.1% chance …", "likely under 2%" at the small end); from one up, as describeExpected
+ * ("about 3.2 failures (likely 1.1 to 6.4)").
+ */
+export function describeOutlook(f: {
+  expected: number;
+  lower: number | null;
+  upper: number | null;
+  noun: [singular: string, plural?: string];
+}): string {
+  const e = f.expected;
+  if (!(e > 0) || e >= 1) return describeExpected(f);
+  const [singular] = f.noun;
+  const chanceOf = (l: number) => 1 - Math.exp(-Math.max(0, l));
+  const what = `${/^[aeiou]/i.test(singular) ? "an" : "a"} ${singular}`;
+  const p = chanceOf(e);
+  const pct = formatPercent(p);
+  const head =
+    p < 0.001
+      ? `under a 0.1% chance of ${what}`
+      : `about ${articleFor(pct)} ${pct} chance of ${what}`;
+  if (f.lower === null || f.upper === null) return head;
+  const [lo, hi] = [chanceOf(f.lower), chanceOf(f.upper)];
+  if (hi < 0.001) return head;
+  if (lo < 0.001) return `${head}, likely under ${formatPercent(hi)}`;
+  return `${head}, likely between ${formatPercent(lo)} and ${formatPercent(hi)}`;
+}
+
+/**
+ * Events counted against what chance predicts (the post-refuel test), in words:
+ * "about 6.7 times what chance predicts, at least 3.9 times"; "about 1.3 times what chance
+ * predicts; could be chance (likely between 0.6 and 2.4 times)"; "none, against about 2.1 by
+ * chance". `lower`/`upper`: the ratio's interval at the organisation's confidence.
+ */
+export function describeAgainstChance(f: {
+  observed: number;
+  expected: number;
+  lower: number | null;
+  upper: number | null;
+}): string {
+  if (!(f.expected > 0)) return "nothing measured to set against chance";
+  if (f.observed === 0) return `none, against about ${formatPlain(f.expected)} by chance`;
+  const ratio = f.observed / f.expected;
+  const head =
+    ratio >= 0.9 && ratio <= 1.1
+      ? "about what chance predicts"
+      : `about ${formatPlain(ratio)} times what chance predicts`;
+  if (f.lower !== null && f.lower > 1) return `${head}, at least ${formatPlain(f.lower)} times`;
+  if (f.upper !== null && Number.isFinite(f.upper) && f.upper < 1)
+    return `${head}, at most ${formatPlain(f.upper)} times`;
+  const upper = f.upper === null || !Number.isFinite(f.upper) ? "many" : formatPlain(f.upper);
+  return `${head}; could be chance (likely between ${formatPlain(f.lower ?? 0)} and ${upper} times)`;
+}
+
+/** How a cohort × band × fault cell's figures are worked out, for its details. */
+export const CELL_METHOD =
+  "Rate: exact Poisson (Garwood) interval. Ratio: exact conditional test against the rest of the fleet in the same band (Przyborowski & Wilenski), with Clopper–Pearson limits. q: Benjamini–Hochberg false-discovery control across all cells.";
+
+/**
+ * The exact figures of a cohort × band × fault cell for a FigureDetails disclosure: the rate per
+ * 10,000 of the organisation's unit and the ratio with their intervals, p, q and the method.
+ * Rates come per 10,000 mi.
+ */
+export function cellFigureRows(
+  c: {
+    ratePer10kMi: number | null;
+    rateLower: number | null;
+    rateUpper: number | null;
+    ratio: number | null;
+    ratioLower: number | null;
+    ratioUpper: number | null;
+    pValue: number | null;
+    qValue: number | null;
+  },
+  confidence: number,
+  unit: "mi" | "km",
+): [label: string, value: string][] {
+  const level = intervalLabel(confidence);
+  const per = (v: number | null) => (v === null ? "—" : formatPlain(perTenThousand(v, unit)));
+  return [
+    [
+      `Rate per 10,000 ${unit}`,
+      `${per(c.ratePer10kMi)} (${level}: ${per(c.rateLower)} to ${per(c.rateUpper)})`,
+    ],
+    [
+      "Rate ratio, against the rest of the fleet",
+      `${c.ratio === null || !Number.isFinite(c.ratio) ? "not finite: no repairs of this in the rest of the fleet" : formatPlain(c.ratio)} (${level}: ${formatRange(c.ratioLower, c.ratioUpper)})`,
+    ],
+    ["p (exact test of the ratio)", formatProbability(c.pValue)],
+    ["q (false-discovery rate)", formatProbability(c.qValue)],
+    ["Method", CELL_METHOD],
+  ];
+}
+
 /** The interval's name for headers and details: "90% interval". */
 export function intervalLabel(confidence: number): string {
   return `${formatConfidence(confidence)} interval`;

@@ -7,7 +7,7 @@
  * (common practice: A = the parts making the first 80% of the value, B the next 15%, C the rest;
  * Silver, Pyke & Peterson 1998, ch. 3).
  */
-import type { ComponentKind } from "@/lib/component-kinds";
+import { COMPONENT_KINDS, type ComponentKind } from "@/lib/component-kinds";
 import { expectedShortfall, gammaSumInterval, poissonStockLevel } from "@/lib/stats";
 
 export type PlannerVehicle = {
@@ -236,4 +236,12 @@ export function withAbcClasses<T extends { annualValueCents: number | null }>(
     const abc = value <= 0 ? "C" : share < 0.8 ? "A" : share < 0.95 ? "B" : "C";
     return { ...r, abc };
   });
+}
+
+/**
+ * The kinds of work a part's demand comes from, largest share first (stable for ties: service,
+ * wear, failure); none for a part with no expected demand.
+ */
+export function demandKinds(byKind: Readonly<Record<ComponentKind, number>>): ComponentKind[] {
+  return COMPONENT_KINDS.filter((k) => byKind[k] > 0).sort((a, b) => byKind[b] - byKind[a]);
 }

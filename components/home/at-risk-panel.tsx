@@ -6,7 +6,7 @@ import { Panel } from "@/components/ui/panel";
 import { Skeleton } from "@/components/ui/skeleton";
 import { fetchJson } from "@/components/ui/fetch-json";
 import type { AtRiskRow } from "@/db/queries/at-risk";
-import { formatInterval, formatSig } from "@/lib/format";
+import { describeOutlook, formatConfidence } from "@/lib/plain-words";
 import { formatDistance } from "@/lib/units";
 import { AT_RISK_HORIZON } from "@/lib/at-risk";
 
@@ -44,10 +44,10 @@ export function AtRiskPanel({ unit }: { unit: "mi" | "km" }) {
         <>
           <p className="text-sm text-ink-soft">
             {query.data.total.toLocaleString("en-GB")} vehicles inside or near the mileage range of
-            a confirmed known issue or a signal; the most expected failures over the next{" "}
-            {AT_RISK_HORIZON.toLocaleString("en-GB")} {unit} first (in brackets: the range at{" "}
-            {Math.round(query.data.confidence * 100)}% confidence, from the uncertainty of the
-            cohort&apos;s rates).
+            a confirmed known issue or a signal; the most at risk over their next{" "}
+            {AT_RISK_HORIZON.toLocaleString("en-GB")} {unit} first. &ldquo;Likely&rdquo; is at{" "}
+            {formatConfidence(query.data.confidence)} confidence, allowing for how sure the
+            cohort&apos;s rates are.
           </p>
           <ul className="mt-2 divide-y divide-line/60 text-sm" aria-label="Vehicles most at risk">
             {query.data.rows.map((r) => (
@@ -63,13 +63,14 @@ export function AtRiskPanel({ unit }: { unit: "mi" | "km" }) {
                 </span>
                 <span className="block text-ink-soft">
                   {r.source.kind === "known-issue" ? r.source.title : `Signal: ${r.source.label}`} ·{" "}
-                  {formatSig(r.expected, 2)} expected
-                  {r.expectedLower !== null && r.expectedUpper !== null ? (
-                    <span data-testid="expected-interval">
-                      {" "}
-                      ({formatInterval(r.expectedLower, r.expectedUpper)})
-                    </span>
-                  ) : null}
+                  <span data-testid="expected">
+                    {describeOutlook({
+                      expected: r.expected,
+                      lower: r.expectedLower,
+                      upper: r.expectedUpper,
+                      noun: ["failure"],
+                    })}
+                  </span>
                 </span>
               </li>
             ))}

@@ -1,22 +1,60 @@
 import Link from "next/link";
 import { cellHref } from "@/components/patterns/query-strings";
+import { FigureDetails } from "@/components/ui/figure-details";
 import { Panel } from "@/components/ui/panel";
 import type { RankedCell } from "@/db/queries/cells";
-import { formatBand, formatInterval, formatSig } from "@/lib/format";
+import { formatBand } from "@/lib/format";
+import {
+  cellFigureRows,
+  countOf,
+  describeRatio,
+  faultName,
+  formatConfidence,
+} from "@/lib/plain-words";
 
-function CellLine({ c, unit }: { c: RankedCell; unit: "mi" | "km" }) {
+type Context = {
+  unit: "mi" | "km";
+  /** The level of the cells' intervals (the analysis run's). */
+  confidence: number;
+  /** "dtc:P0496" / "component:<slug>" → the fault's name (listFaultNames). */
+  faultNames: ReadonlyMap<string, string>;
+};
+
+function CellLine({ c, unit, confidence, faultNames }: Context & { c: RankedCell }) {
+  const name =
+    (c.dtc ? faultNames.get(`dtc:${c.dtc}`) : faultNames.get(`component:${c.component}`)) ??
+    faultName({ dtc: c.dtc, faultKey: c.component ? `component:${c.component}` : null });
   return (
     <li className="border-t border-line/60 py-2 first:border-0">
       <Link href={cellHref(c)} className="font-medium">
-        {c.make} {c.model} {c.generation} · {c.dtc ?? c.component}
+        {c.make} {c.model} {c.generation} · {name}
       </Link>
       <p className="text-sm text-ink-soft">
-        {formatBand(c.bandFrom, c.bandTo, unit)}: {c.events} repairs,{" "}
-        {c.ratio === null
-          ? `none elsewhere (≥ ${formatSig(c.ratioLower)}×)`
-          : `${formatSig(c.ratio)}× the rest`}{" "}
-        (95% {formatInterval(c.ratioLower, c.ratioUpper)})
+        {formatBand(c.bandFrom, c.bandTo, unit)}: {countOf(c.events, "repair")},{" "}
+        {describeRatio({
+          ratio: c.ratio,
+          lower: c.ratioLower,
+          upper: c.ratioUpper,
+          events: c.events,
+        })}
       </p>
+      <FigureDetails
+        summary="Figures"
+        rows={cellFigureRows(
+          {
+            ratePer10kMi: c.rate,
+            rateLower: c.rateLower,
+            rateUpper: c.rateUpper,
+            ratio: c.ratio,
+            ratioLower: c.ratioLower,
+            ratioUpper: c.ratioUpper,
+            pValue: c.pValue,
+            qValue: c.qValue,
+          },
+          confidence,
+          unit,
+        )}
+      />
     </li>
   );
 }
@@ -26,14 +64,17 @@ export function PatternPanels({
   signals,
   top,
   unit,
-  computedAt,
+  run,
+  faultNames,
 }: {
   signals: (RankedCell & { firstSeen?: string | null })[];
   top: RankedCell[];
   unit: "mi" | "km";
-  computedAt: string | null;
+  /** The latest analysis run, or null before the first. */
+  run: { finishedAt: string; confidenceLevel: number } | null;
+  faultNames: ReadonlyMap<string, string>;
 }) {
-  if (!computedAt) {
+  if (!run) {
     return (
       <Panel title="Patterns">
         <p className="text-sm text-ink-soft">
@@ -43,6 +84,7 @@ export function PatternPanels({
       </Panel>
     );
   }
+  const context: Context = { unit, confidence: run.confidenceLevel, faultNames };
   const newest = [...signals]
     .sort((a, b) => String(b.firstSeen ?? "").localeCompare(String(a.firstSeen ?? "")))
     .slice(0, 5);
@@ -50,11 +92,14 @@ export function PatternPanels({
     <>
       <Panel title={`New signals (${signals.length})`}>
         {newest.length === 0 ? (
-          <p className="text-sm text-ink-soft">No cell stands out after false-discovery control.</p>
+          <p className="text-sm text-ink-soft">
+            No failure stands out from the rest of the fleet once chance across all the cells is
+            allowed for.
+          </p>
         ) : (
           <ul>
             {newest.map((c) => (
-              <CellLine key={cellHref(c)} c={c} unit={unit} />
+              <CellLine key={cellHref(c)} c={c} {...context} />
             ))}
           </ul>
         )}
@@ -62,14 +107,16 @@ export function PatternPanels({
       <Panel title="Top recurring failures">
         <ul>
           {top.map((c) => (
-            <CellLine key={cellHref(c)} c={c} unit={unit} />
+            <CellLine key={cellHref(c)} c={c} {...context} />
           ))}
         </ul>
         <Link href="/patterns" className="mt-2 inline-block text-sm">
           All patterns →
         </Link>
         <p className="mt-2 text-xs text-ink-soft">
-          Computed {computedAt.slice(0, 16).replace("T", " ")} UTC.
+          Computed {run.finishedAt.slice(0, 16).replace("T", " ")} UTC. Against the rest of the
+          fleet in the same mileage band; &ldquo;at least&rdquo; and &ldquo;likely&rdquo; at{" "}
+          {formatConfidence(run.confidenceLevel)} confidence.
         </p>
       </Panel>
     </>

@@ -113,6 +113,10 @@ export function SettingsForm({ values }: { values: SettingsValues }) {
           <option value="0.95">95%</option>
           <option value="0.99">99%</option>
         </select>
+        <span className="mt-1 block text-ink-soft">
+          What &ldquo;likely between&rdquo; and &ldquo;at least&rdquo; mean on every screen: how
+          often the range holds the true figure.
+        </span>
       </label>
       <Field
         name="minExposure"

@@ -1,5 +1,14 @@
 import Link from "next/link";
+import { FigureDetails } from "@/components/ui/figure-details";
 import type { BandPosition, MatchedPattern } from "@/db/queries/vehicle-timeline";
+import { KIND_LABELS } from "@/lib/component-kinds";
+import {
+  cellFigureRows,
+  describeRate,
+  describeRatio,
+  describeShare,
+  faultName as nameOfFault,
+} from "@/lib/plain-words";
 import { formatDistance, milesToUnit } from "@/lib/units";
 import type { TimelineBand } from "./timeline-chart";
 
@@ -14,20 +23,14 @@ const GROUPS: { position: BandPosition; heading: string }[] = [
 ];
 
 const whole = (mi: number, unit: Unit) => Math.round(milesToUnit(mi, unit)).toLocaleString("en-GB");
-const figure = (v: number | null, digits = 2) => (v === null ? "—" : v.toFixed(digits));
 
 function bandText(p: MatchedPattern, unit: Unit): string {
   return `${whole(p.bandFromMi, unit)}–${formatDistance(p.bandToMi, unit)}`;
 }
 
-/** "P0496" or "Fuel vapour → Purge valve": the fault as the bands on the chart name it. */
+/** "P0496 — Purge flow …" or "Fuel vapour → Purge valve": the fault by its name. */
 function faultName(p: MatchedPattern): string {
-  return p.dtc ?? `${p.componentSystem ?? ""} → ${p.componentName ?? p.componentSlug ?? ""}`;
-}
-
-function faultText(p: MatchedPattern): string {
-  if (p.dtc) return p.dtcDescription ? `${p.dtc} (${p.dtcDescription.toLowerCase()})` : p.dtc;
-  return faultName(p);
+  return nameOfFault(p);
 }
 
 function positionText(p: MatchedPattern, odometerMi: number | null, unit: Unit): string {
@@ -45,6 +48,10 @@ function positionText(p: MatchedPattern, odometerMi: number | null, unit: Unit):
 }
 
 function historyText(p: MatchedPattern): string {
+  if (p.kind === "wear") {
+    if (!p.hasHadFault) return "Not replaced on this vehicle so far.";
+    return `Already replaced on this vehicle: ${p.vehicleRepairs} time${p.vehicleRepairs === 1 ? "" : "s"} (${p.vehicleRepairsInBand} in this band).`;
+  }
   if (!p.hasHadFault) return "No repair or fault-code event for this fault on this vehicle so far.";
   const parts: string[] = [];
   if (p.vehicleRepairs > 0)
@@ -91,39 +98,82 @@ export function patternBands(patterns: MatchedPattern[]): TimelineBand[] {
 
 type Context = { unit: Unit; odometerMi: number | null; confidenceLevel: number };
 
-function PatternItem({ p, unit, odometerMi, confidenceLevel }: Context & { p: MatchedPattern }) {
-  const level = `${Math.round(confidenceLevel * 100)}%`;
-  // Rates are stored per 10,000 mi; per 10,000 km is the same count over 1.609… times the distance.
-  const rate = (v: number | null) => figure(v === null ? null : v / milesToUnit(1, unit));
-  const ratio =
-    p.rateRatio === null
-      ? "while the rest of the fleet had none in this band"
-      : `${p.rateRatio.toFixed(1)}× the rest of the fleet (${level} ${figure(p.ratioLower, 1)}–${figure(p.ratioUpper, 1)})`;
+/**
+ * A matched pattern in one sentence: the cohort, band and fault by name, the count over the
+ * distance driven with its rate, how it stands against the rest of the fleet (for wear: that it
+ * wears out sooner), and where this vehicle is.
+ */
+export function patternSentence(p: MatchedPattern, { unit, odometerMi }: Context): string {
+  const isWear = p.kind === "wear";
+  const rate = describeRate({
+    events: p.events,
+    exposureMi: p.exposureMi,
+    ratePer10kMi: p.ratePer10k,
+    lowerPer10kMi: p.rateLower,
+    upperPer10kMi: p.rateUpper,
+    unit,
+    noun: isWear ? ["replacement"] : ["repair"],
+  });
+  const ratio = describeRatio({
+    ratio: p.rateRatio,
+    lower: p.ratioLower,
+    upper: p.ratioUpper,
+    events: p.events,
+  });
+  const against = isWear ? `wears out sooner than on the rest of the fleet (${ratio})` : ratio;
+  return `${p.make} ${p.model} ${p.cohortLabel}, ${bandText(p, unit)}, ${faultName(p)}: ${rate}; ${against} — ${positionText(p, odometerMi, unit)}.`;
+}
+
+function PatternItem({ p, ...context }: Context & { p: MatchedPattern }) {
+  const { unit, confidenceLevel } = context;
+  const badge = "rounded px-1.5 py-0.5 text-xs font-medium";
   return (
     <li className="rounded-md border border-line px-4 py-3 text-sm">
       <p className="mb-1 flex flex-wrap gap-2">
         <span
-          className={`rounded px-1.5 py-0.5 text-xs font-medium ${p.isSignal ? "bg-ochre-100 text-ochre-700" : "bg-sea-100 text-sea-800"}`}
+          className={`${badge} ${p.isSignal ? "bg-ochre-100 text-ochre-700" : "bg-sea-100 text-sea-800"}`}
         >
           {p.isSignal ? "Signal" : "Ranks high"}
         </span>
+        {p.kind === "wear" ? (
+          <span className={`${badge} bg-paper text-ink ring-1 ring-line`} data-testid="wear-label">
+            {KIND_LABELS.wear}
+          </span>
+        ) : null}
         {p.hasHadFault ? (
-          <span className="rounded bg-alarm-100 px-1.5 py-0.5 text-xs font-medium text-alarm-700">
-            Had this fault
+          <span className={`${badge} bg-alarm-100 text-alarm-700`}>
+            {p.kind === "wear" ? "Replaced before" : "Had this fault"}
           </span>
         ) : null}
       </p>
-      <p className="text-ink">
-        {`${p.make} ${p.model} ${p.cohortLabel}, ${bandText(p, unit)}, ${faultText(p)}: ` +
-          `${rate(p.ratePer10k)} repairs per 10,000 ${unit} (${level} ${rate(p.rateLower)}–${rate(p.rateUpper)}), ` +
-          `${ratio} — ${positionText(p, odometerMi, unit)}.`}
-      </p>
+      <p className="text-ink">{patternSentence(p, context)}</p>
       <p className="mt-1 text-ink-soft">
-        {p.events} repair{p.events === 1 ? "" : "s"} over {formatDistance(p.exposureMi, unit)} of
-        exposure; {p.vehiclesAffected} of {p.vehiclesAtRisk} vehicles affected
-        {p.qValue === null ? "" : `; false-discovery q = ${p.qValue.toPrecision(2)}`}.{" "}
-        {historyText(p)}
+        {describeShare({
+          count: p.vehiclesAffected,
+          of: p.vehiclesAtRisk,
+          lower: null,
+          upper: null,
+          noun: ["vehicle"],
+        })}{" "}
+        of the cohort in this band had it. {historyText(p)}
       </p>
+      <FigureDetails
+        summary="Figures"
+        rows={cellFigureRows(
+          {
+            ratePer10kMi: p.ratePer10k,
+            rateLower: p.rateLower,
+            rateUpper: p.rateUpper,
+            ratio: p.rateRatio,
+            ratioLower: p.ratioLower,
+            ratioUpper: p.ratioUpper,
+            pValue: p.pValue,
+            qValue: p.qValue,
+          },
+          confidenceLevel,
+          unit,
+        )}
+      />
       <p className="mt-1">
         <Link
           href={patternHref(p)}

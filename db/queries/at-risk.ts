@@ -8,6 +8,7 @@ import {
   milesByBand,
   type BandPosterior,
 } from "@/lib/at-risk";
+import { faultName } from "@/lib/plain-words";
 import { unitToMiles } from "@/lib/units";
 import { getKnownIssueEvidence } from "./known-issue-evidence";
 import { getKnownIssue, listKnownIssues } from "./known-issues";
@@ -22,7 +23,12 @@ export type AtRiskRow = {
   /** Why: a confirmed known issue, or a computed signal (cohort × band × fault). */
   source:
     | { kind: "known-issue"; id: number; title: string }
-    | { kind: "signal"; faultKey: string; label: string };
+    | {
+        kind: "signal";
+        faultKey: string;
+        /** The fault by name: "P0496 — …" or "Power distribution → Body ground strap". */
+        label: string;
+      };
   rangeFromMi: number | null;
   rangeToMi: number | null;
   /** Miles until the range starts (0 inside it). */
@@ -182,11 +188,13 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
     dtc: string | null;
     band_from_mi: number;
     band_to_mi: number;
-    fault_label: string | null;
+    dtc_description: string | null;
+    component_system: string | null;
+    component_name: string | null;
   }>(sql`
     select c.make, c.model, c.cohort_label as label, c.fault_key, c.component_id, c.dtc,
-           c.band_from_mi, c.band_to_mi,
-           coalesce(d.code || ' ' || d.description, k.system || ' → ' || k.name) as fault_label
+           c.band_from_mi, c.band_to_mi, d.description as dtc_description,
+           k.system as component_system, k.name as component_name
       from cell_stats c
       left join dtc_codes d on d.code = c.dtc
       left join components k on k.id = c.component_id
@@ -228,7 +236,13 @@ export async function getAtRiskVehicles(db: Db, scope: OrgScope, opts: { nextMil
         source: {
           kind: "signal",
           faultKey: c.fault_key,
-          label: c.fault_label ?? c.fault_key.replace(/^dtc:|^component:/, ""),
+          label: faultName({
+            dtc: c.dtc,
+            dtcDescription: c.dtc_description,
+            componentSystem: c.component_system,
+            componentName: c.component_name,
+            faultKey: c.fault_key,
+          }),
         },
         rangeFromMi: Number(c.band_from_mi),
         rangeToMi: Number(c.band_to_mi),

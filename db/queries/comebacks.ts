@@ -8,7 +8,8 @@ import { assertCan, type OrgScope } from "./scope";
 /**
  * Comebacks of the organisation: every repair line with its codes, component, technician and
  * vendor (the line's, else the order's), grouped by lib/comeback-rates.ts with the
- * organisation's comeback window (comebackDays, comebackDistance in its unit).
+ * organisation's comeback window (comebackDays, comebackDistance in its unit) and its
+ * confidence level; DTCs named with their descriptions.
  */
 /** Repair lines per query page. */
 const PAGE = 5_000;
@@ -19,9 +20,10 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
     comeback_days: number;
     comeback_distance: number;
     distance_unit: "mi" | "km";
+    confidence_level: number;
     as_of: string | null;
   }>(sql`
-    select o.comeback_days, o.comeback_distance, o.distance_unit,
+    select o.comeback_days, o.comeback_distance, o.distance_unit, o.confidence_level,
            (select max(opened_on) from visible_repair_lines where organisation_id = ${scope.organisationId}) as as_of
       from organisations o where o.id = ${scope.organisationId}`);
   if (!org) throw new Error("getComebackReport: organisation missing");
@@ -76,16 +78,27 @@ export async function getComebackReport(db: Db, scope: OrgScope) {
     technician: r.technician,
     vendor: r.vendor,
   }));
+  // The descriptions of the organisation's repair-line codes, for the fault names.
+  const descriptions = await db.all<{ code: string; description: string }>(sql`
+    select distinct d.code, d.description
+      from visible_repair_line_codes c join dtc_codes d on d.code = c.dtc
+     where c.organisation_id = ${scope.organisationId}`);
   const window = {
     days: Number(org.comeback_days),
     miles: unitToMiles(Number(org.comeback_distance), org.distance_unit),
   };
+  const confidence = Number(org.confidence_level);
   return {
-    ...analyseComebacks(lines, window, org.as_of),
+    ...analyseComebacks(lines, window, org.as_of, {
+      confidence,
+      dtcDescriptions: new Map(descriptions.map((d) => [d.code, d.description])),
+    }),
     settings: {
       days: Number(org.comeback_days),
       distance: Number(org.comeback_distance),
       unit: org.distance_unit,
+      /** The level of every rate's interval. */
+      confidence,
     },
   };
 }

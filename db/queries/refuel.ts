@@ -7,7 +7,7 @@ import {
   sinceFillUpHistogram,
   type HistogramBin,
 } from "@/lib/refuel";
-import { refuelWindowTest, type RefuelWindowResult } from "@/lib/stats";
+import { poissonInterval, refuelWindowTest, type RefuelWindowResult } from "@/lib/stats";
 import { assertCan, type OrgScope } from "./scope";
 
 /** The symptoms the post-refuel test looks at (statistics.md §7). */
@@ -72,10 +72,17 @@ export type RefuelOptions = {
   maxMi?: number;
 };
 
-const clean = (r: RefuelWindowResult): RefuelWindowResult => ({
-  ...r,
-  ratio: Number.isFinite(r.ratio) ? r.ratio : NaN,
-});
+/**
+ * The test's result with its ratio interval at the organisation's confidence: the exact Poisson
+ * (Garwood) limits of the observed count, divided by what chance predicts, as refuelWindowTest
+ * gives them at 95%.
+ */
+const atLevel = (r: RefuelWindowResult, confidence: number): RefuelWindowResult => {
+  const ratio = Number.isFinite(r.ratio) ? r.ratio : NaN;
+  if (!(r.expected > 0)) return { ...r, ratio };
+  const { lower, upper } = poissonInterval(r.observed, r.expected, confidence);
+  return { ...r, ratio, lower, upper };
+};
 
 /**
  * Post-refuel stall test (statistics.md §7) per cohort and per vehicle.
@@ -88,7 +95,8 @@ const clean = (r: RefuelWindowResult): RefuelWindowResult => ({
  * and day: a fault event on the day of a counted repair order, or of another counted fault
  * event, is the same incident. Events without an odometer reading are counted in
  * eventsWithoutOdometer; events with no fill-up in the previous 1,000 mi in noFuelData, and
- * their vehicles are listed. Every query pins the organisation.
+ * their vehicles are listed. Ratio intervals are at the organisation's confidence level. Every
+ * query pins the organisation.
  */
 export async function getRefuelAnalysis(
   db: Db,
@@ -97,6 +105,10 @@ export async function getRefuelAnalysis(
   opts: RefuelOptions = {},
 ) {
   assertCan(scope, "refuel:read");
+  const [org] = await db.all<{ confidence_level: number }>(sql`
+    select confidence_level from organisations where id = ${scope.organisationId}`);
+  /** The level of every ratio interval (the organisation's setting). */
+  const confidence = Number(org?.confidence_level ?? 0.95);
   const symptoms = opts.symptoms && opts.symptoms.length > 0 ? opts.symptoms : REFUEL_SYMPTOMS;
   const symptomList = sql.join(
     symptoms.map((s) => sql`${s}`),
@@ -261,12 +273,13 @@ export async function getRefuelAnalysis(
     return out;
   };
   const test = (e: readonly RefuelEvent[], f: typeof fillUps): RefuelRow => ({
-    ...clean(
+    ...atLevel(
       refuelWindowTest(
         e.map((x) => ({ vehicle: x.vehicleId, odometer: x.odometerMi })),
         f,
         windowMiles,
       ),
+      confidence,
     ),
     events: e.length,
   });
@@ -357,6 +370,7 @@ export async function getRefuelAnalysis(
 
   return {
     windowMiles,
+    confidence,
     symptoms: [...symptoms],
     fleet,
     cohorts,

@@ -18,6 +18,8 @@ import {
   type FaultStatus,
   type Symptom,
 } from "@/db/schema";
+import type { AnalysedKind } from "@/lib/component-kinds";
+import { faultName } from "@/lib/plain-words";
 import { cleanOdometerReadings } from "@/lib/stats";
 import { assertCan, countRows, orgWhere, type OrgScope } from "./scope";
 
@@ -44,6 +46,8 @@ export type TimelineRepairLine = {
   correction: string | null;
   /** The line's DTCs, one each (from repair_line_codes). */
   dtcs: string[];
+  /** The same DTCs by name: "P0496 — Purge flow …" (the code alone when not in the catalogue). */
+  dtcNames: string[];
   componentId: number | null;
   componentSlug: string | null;
   componentSystem: string | null;
@@ -109,6 +113,8 @@ export type MatchedPattern = {
   bandToMi: number;
   /** "dtc:P0496" or "component:fuel-vapour/purge-valve", as the pattern drill-down takes it. */
   faultKey: string;
+  /** Failure or wear: which repair lines the cell counts (wear is shown as wear). */
+  kind: AnalysedKind;
   dtc: string | null;
   dtcDescription: string | null;
   componentSlug: string | null;
@@ -126,6 +132,8 @@ export type MatchedPattern = {
   rateRatio: number | null;
   ratioLower: number | null;
   ratioUpper: number | null;
+  /** Exact test of the ratio (two-sided), and its false-discovery q-value. */
+  pValue: number | null;
   qValue: number | null;
   isSignal: boolean;
   position: BandPosition;
@@ -275,8 +283,13 @@ export async function getVehicleTimeline(
           asc(visibleRepairLines.id),
         ),
       db
-        .select({ lineId: visibleRepairLineCodes.repairLineId, dtc: visibleRepairLineCodes.dtc })
+        .select({
+          lineId: visibleRepairLineCodes.repairLineId,
+          dtc: visibleRepairLineCodes.dtc,
+          description: dtcCodes.description,
+        })
         .from(visibleRepairLineCodes)
+        .leftJoin(dtcCodes, eq(dtcCodes.code, visibleRepairLineCodes.dtc))
         .where(orgWhere(visibleRepairLineCodes, scope, ofVehicle(visibleRepairLineCodes.vehicleId)))
         .orderBy(asc(visibleRepairLineCodes.id)),
       db
@@ -374,9 +387,16 @@ export async function getVehicleTimeline(
     ),
   ]);
 
-  const codesByLine = new Map<number, string[]>();
-  for (const c of codes) codesByLine.set(c.lineId, [...(codesByLine.get(c.lineId) ?? []), c.dtc]);
-  const datedLines = lines.map((l) => ({ ...l, dtcs: codesByLine.get(l.id) ?? [] }));
+  const codesByLine = new Map<number, typeof codes>();
+  for (const c of codes) codesByLine.set(c.lineId, [...(codesByLine.get(c.lineId) ?? []), c]);
+  const datedLines = lines.map((l) => {
+    const own = codesByLine.get(l.id) ?? [];
+    return {
+      ...l,
+      dtcs: own.map((c) => c.dtc),
+      dtcNames: own.map((c) => faultName({ dtc: c.dtc, dtcDescription: c.description })),
+    };
+  });
   faults.reverse();
   fills.reverse();
   readings.reverse();
@@ -484,6 +504,7 @@ async function listMatchedPatterns(
       rateRatio: cellStats.rateRatio,
       ratioLower: cellStats.ratioLower,
       ratioUpper: cellStats.ratioUpper,
+      pValue: cellStats.pValue,
       qValue: cellStats.qValue,
       isSignal: cellStats.isSignal,
     })
@@ -517,6 +538,8 @@ async function listMatchedPatterns(
         cell.dtc === null ? 0 : (input.faultEventsByDtc.get(cell.dtc) ?? 0);
       return {
         ...cell,
+        // Cells are computed for failure and wear lines only; service is never a pattern.
+        kind: cell.kind === "wear" ? "wear" : "failure",
         position: bandPosition(vehicle.currentOdometerMi, cell.bandFromMi, cell.bandToMi),
         vehicleRepairs: onFault.length,
         vehicleRepairsInBand: inBand.length,

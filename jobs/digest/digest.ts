@@ -1,12 +1,13 @@
-import escapeHtml from "escape-html";
 import { sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import { getAtRiskVehicles } from "@/db/queries/at-risk";
 import { queueEmail } from "@/db/queries/email";
+import { listFaultNames } from "@/db/queries/reference";
 import { findComebacks } from "@/lib/comebacks";
 import { getConfiguredBaseUrl } from "@/lib/env";
-import { formatInterval } from "@/lib/format";
 import { STATE_LABELS } from "@/lib/known-issues";
+import { buildDigestEmail, type Digest } from "@/lib/mail/digest-email";
+import { faultName } from "@/lib/plain-words";
 import { unitToMiles } from "@/lib/units";
 import type { KnownIssueState } from "@/db/schema";
 import { AT_RISK_HORIZON } from "@/lib/at-risk";
@@ -21,22 +22,7 @@ export function isoWeekKey(date: Date): string {
   return `${d.getUTCFullYear()}-W${String(week).padStart(2, "0")}`;
 }
 
-export type Digest = {
-  organisation: { id: number; name: string; distanceUnit: "mi" | "km" };
-  since: string;
-  newSignals: { label: string; band: string; events: number; ratioLower: number | null }[];
-  stateChanges: { title: string; from: string; to: string; reason: string; at: string }[];
-  comebacks: { fault: string; count: number }[];
-  /** Expected failures over the horizon, with their range at `confidence` (null: none yet). */
-  atRisk: {
-    vehicle: string;
-    why: string;
-    expected: number;
-    expectedLower: number | null;
-    expectedUpper: number | null;
-  }[];
-  confidence: number;
-};
+export type { Digest };
 
 const whole = (mi: number, unit: "mi" | "km") =>
   Math.round(unit === "km" ? mi * 1.609344 : mi).toLocaleString("en-GB");
@@ -66,12 +52,21 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
     fault_key: string;
     band_index: number;
     events: number;
+    rate_ratio: number | null;
     ratio_lower: number | null;
+    ratio_upper: number | null;
     band_width_mi: number | null;
+    dtc_description: string | null;
+    component_system: string | null;
+    component_name: string | null;
   }>(sql`
-    select s.make, s.model, s.cohort_label, s.fault_key, s.band_index, s.events, s.ratio_lower,
-           (select band_width_mi from analysis_runs r where r.id = s.last_run_id) as band_width_mi
+    select s.make, s.model, s.cohort_label, s.fault_key, s.band_index, s.events, s.rate_ratio,
+           s.ratio_lower, s.ratio_upper,
+           (select band_width_mi from analysis_runs r where r.id = s.last_run_id) as band_width_mi,
+           d.description as dtc_description, k.system as component_system, k.name as component_name
       from signals s
+      left join dtc_codes d on s.fault_key = 'dtc:' || d.code
+      left join components k on s.fault_key = 'component:' || k.slug
      where s.organisation_id = ${organisationId} and s.created_at >= ${sinceIso} and s.state <> 'dismissed'
        and s.kind = 'failure'
      order by s.ratio_lower desc limit 20`);
@@ -86,23 +81,36 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
       from known_issue_states s join known_issues k on k.id = s.known_issue_id
      where s.organisation_id = ${organisationId} and s.from_state is not null and s.created_at >= ${sinceIso}
      order by s.created_at`);
-  // Comebacks whose second visit falls in the period, by fault (component, else first DTC).
+  // Comebacks whose second visit falls in the period, by fault (component, else first DTC), on
+  // failure lines only, as the comebacks screen counts them.
   const lines = await db.all<{
     id: number;
     vehicle_id: number;
     opened_on: string;
     odometer_mi: number | null;
-    fault: string | null;
+    component_system: string | null;
+    component_name: string | null;
+    dtc: string | null;
   }>(sql`
     select l.id, l.vehicle_id, l.opened_on, l.odometer_mi,
-           coalesce(k.system || ' → ' || k.name, (select min(dtc) from visible_repair_line_codes c where c.repair_line_id = l.id)) as fault
+           k.system as component_system, k.name as component_name,
+           (select min(dtc) from visible_repair_line_codes c where c.repair_line_id = l.id) as dtc
       from visible_repair_lines l left join components k on k.id = l.component_id
-     where l.organisation_id = ${organisationId}
+     where l.organisation_id = ${organisationId} and l.kind = 'failure'
        and l.opened_on >= date(${sinceIso}, ${`-${org.comeback_days + 1} days`})`);
+  const dtcNames = await listFaultNames(
+    db,
+    lines.map((l) => ({ dtc: l.component_name ? null : l.dtc, component: null })),
+  );
   const byFault = new Map<string, typeof lines>();
   for (const l of lines) {
-    if (!l.fault) continue;
-    byFault.set(l.fault, [...(byFault.get(l.fault) ?? []), l]);
+    const fault = l.component_name
+      ? faultName({ componentSystem: l.component_system, componentName: l.component_name })
+      : l.dtc
+        ? (dtcNames.get(`dtc:${l.dtc}`) ?? l.dtc)
+        : null;
+    if (!fault) continue;
+    byFault.set(fault, [...(byFault.get(fault) ?? []), l]);
   }
   const window = { days: org.comeback_days, miles: unitToMiles(org.comeback_distance, unit) };
   const sinceDay = sinceIso.slice(0, 10);
@@ -132,11 +140,24 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
     since: sinceDay,
     newSignals: signals.map((s) => {
       const width = s.band_width_mi ?? 25_000;
+      const cohort = `${s.make} ${s.model} ${s.cohort_label}`;
+      const fault = faultName({
+        dtc: s.fault_key.startsWith("dtc:") ? s.fault_key.slice(4) : null,
+        dtcDescription: s.dtc_description,
+        componentSystem: s.component_system,
+        componentName: s.component_name,
+        faultKey: s.fault_key,
+      });
+      const number = (v: number | null) => (v === null ? null : Number(v));
       return {
-        label: `${s.make} ${s.model} ${s.cohort_label} · ${s.fault_key.replace(/^dtc:|^component:/, "")}`,
+        label: `${cohort} · ${fault}`,
+        cohort,
+        fault,
         band: `${whole(s.band_index * width, unit)}–${whole((s.band_index + 1) * width, unit)} ${unit}`,
         events: Number(s.events),
-        ratioLower: s.ratio_lower === null ? null : Number(s.ratio_lower),
+        ratio: number(s.rate_ratio),
+        ratioLower: number(s.ratio_lower),
+        ratioUpper: number(s.ratio_upper),
       };
     }),
     stateChanges: states.map((s) => ({
@@ -149,7 +170,7 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
     comebacks,
     atRisk: rows.slice(0, 10).map((r) => ({
       vehicle: r.unitNumber ?? r.vin ?? `#${r.vehicleId}`,
-      why: r.source.kind === "known-issue" ? r.source.title : `signal: ${r.source.label}`,
+      why: r.source.kind === "known-issue" ? r.source.title : `Signal: ${r.source.label}`,
       expected: r.expected,
       expectedLower: r.expectedLower,
       expectedUpper: r.expectedUpper,
@@ -158,68 +179,9 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
   };
 }
 
-/** The digest as an e-mail: a plain-text part and an HTML part with the same content. */
+/** The digest as an e-mail (lib/mail/digest-email.ts), linking to the configured address. */
 export function renderDigest(d: Digest): { subject: string; text: string; html: string } {
-  const base = getConfiguredBaseUrl() ?? "http://localhost:3000";
-  const sections: { title: string; empty: string; items: string[] }[] = [
-    {
-      title: "New signals",
-      empty: "No new signals.",
-      items: d.newSignals.map(
-        (s) =>
-          `${s.label}, ${s.band}: ${s.events} repairs, at least ${s.ratioLower === null ? "—" : s.ratioLower.toFixed(1)}× the rest of the fleet`,
-      ),
-    },
-    {
-      title: "Known issues that changed state",
-      empty: "No state changes.",
-      items: d.stateChanges.map((c) => `${c.title}: ${c.from} → ${c.to} (${c.at}) — ${c.reason}`),
-    },
-    {
-      title: "Top comebacks",
-      empty: "No comebacks.",
-      items: d.comebacks.map(
-        (c) => `${c.fault}: ${c.count} vehicle${c.count === 1 ? "" : "s"} back`,
-      ),
-    },
-    {
-      title: "Vehicles most at risk",
-      empty: "No vehicle is approaching a confirmed known issue or a signal.",
-      items: d.atRisk.map(
-        (a) =>
-          `${a.vehicle}: ${a.why} (${a.expected.toFixed(2)} failures expected in the next ${AT_RISK_HORIZON.toLocaleString("en-GB")} ${d.organisation.distanceUnit}${
-            a.expectedLower !== null && a.expectedUpper !== null
-              ? `; ${formatInterval(a.expectedLower, a.expectedUpper)} at ${Math.round(d.confidence * 100)}% confidence`
-              : ""
-          })`,
-      ),
-    },
-  ];
-  const subject = `Recurra weekly digest: ${d.organisation.name} — ${d.newSignals.length} new signal${d.newSignals.length === 1 ? "" : "s"}`;
-  const text = [
-    `${d.organisation.name}: what changed since ${d.since}.`,
-    "",
-    ...sections.flatMap((s) => [
-      s.title.toUpperCase(),
-      ...(s.items.length ? s.items.map((i) => `- ${i}`) : [s.empty]),
-      "",
-    ]),
-    `Open Recurra: ${base}/`,
-    "You get this because you opted in to the weekly digest (Account page).",
-  ].join("\n");
-  const html = [
-    `<p>${escapeHtml(d.organisation.name)}: what changed since ${escapeHtml(d.since)}.</p>`,
-    ...sections.map(
-      (s) =>
-        `<h2 style="font-size:16px">${escapeHtml(s.title)}</h2>` +
-        (s.items.length
-          ? `<ul>${s.items.map((i) => `<li>${escapeHtml(i)}</li>`).join("")}</ul>`
-          : `<p>${escapeHtml(s.empty)}</p>`),
-    ),
-    `<p><a href="${escapeHtml(base)}/">Open Recurra</a></p>`,
-    `<p style="color:#666">You get this because you opted in to the weekly digest (Account page).</p>`,
-  ].join("\n");
-  return { subject, text, html };
+  return buildDigestEmail(d, getConfiguredBaseUrl() ?? "http://localhost:3000");
 }
 
 /**

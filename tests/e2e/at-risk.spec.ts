@@ -1,5 +1,9 @@
 import { expect, screenshot, signIn, test } from "./support";
 
+/** An expected count in words: below one as a chance with its range as chances. */
+const OUTLOOK =
+  /^((about an? [\d.]+%|under a 0\.1%) chance of a failure(, likely (between [\d.]+% and [\d.]+%|under [\d.]+%))?|about [\d.,]+ failures? \(likely (under )?[\d.,]+ to [\d.,]+\))$/;
+
 test("the fleet manager lists vehicles at risk, exports them, and works a campaign list", async ({
   page,
 }) => {
@@ -22,8 +26,14 @@ test("the fleet manager lists vehicles at risk, exports them, and works a campai
     "unit_number,vin,cohort,odometer_mi,why,range_from_mi,range_to_mi,miles_to_range,expected_failures,expected_low,expected_high,fix_cost",
   );
   expect(lines.length).toBeGreaterThan(1);
-  // Each expected count carries its interval, on the page and in the file (low ≤ expected ≤ high).
-  await expect(table.getByTestId("expected-interval").first()).toHaveText(/^[\d.,]+–[\d.,]+$/);
+  // Each expected count in words with its range, on the page; the exact figures one click away
+  // and in the file (low ≤ expected ≤ high).
+  await expect(table.getByTestId("expected").first()).toHaveText(OUTLOOK);
+  await expect(table).not.toContainText("expected failures (");
+  const figures = rows.nth(1).locator("[data-figure-details]");
+  await figures.locator("summary").click();
+  await expect(figures).toContainText(/Expected failures\s*[\d.]+/);
+  await expect(figures).toContainText(/95% interval\s*[\d.]+ to [\d.]+/);
   for (const line of lines.slice(1, 20)) {
     const cells = line.split(",");
     const [expected, low, high] = cells.slice(-4, -1).map(Number);
@@ -94,14 +104,31 @@ test("home: a manager sees the vehicles most at risk; a technician the lookup; a
     "href",
     `/vehicles/${api.rows[0]!.vehicleId}`,
   );
-  // Each with its range, in brackets, as the watch-list gives it; the level is said once.
+  // Each in words with its range, as the watch-list gives it; the level is said once.
   const [top] = api.rows;
   expect(top!.expectedLower).not.toBeNull();
-  await expect(list.getByRole("listitem").first().getByTestId("expected-interval")).toHaveText(
-    /^ \([\d.,]+–[\d.,]+\)$/,
-  );
-  await expect(page.getByText(`${Math.round(api.confidence * 100)}% confidence`)).toBeVisible();
+  await expect(list.getByRole("listitem").first().getByTestId("expected")).toHaveText(OUTLOOK);
+  await expect(list.getByRole("listitem").first()).toContainText(/likely/);
+  await expect(
+    page
+      .getByRole("region", { name: "Vehicles at risk" })
+      .getByText(`${Math.round(api.confidence * 100)}% confidence`),
+  ).toBeVisible();
   expect((await page.request.get("/api/at-risk?limit=0")).status()).toBe(400);
+
+  // The new signals and top failures: faults by name, ratios in words, the p-value one click away.
+  for (const name of [/^New signals \(\d+\)$/, "Top recurring failures"]) {
+    const panel = page.getByRole("region", { name });
+    const first = panel.getByRole("listitem").first();
+    await expect(first).toContainText(/\d+ repairs?, (about|no repairs of this)/);
+    await expect(first).toContainText(/the rest of the fleet/);
+    await expect(first.getByRole("link")).not.toHaveText(/[a-z]+-[a-z-]+\/[a-z]/);
+    const figures = first.locator("[data-figure-details]");
+    await expect(figures.getByText("p (exact test of the ratio)")).toBeHidden();
+    await figures.locator("summary").click();
+    await expect(figures.getByText("p (exact test of the ratio)")).toBeVisible();
+    await expect(figures).not.toContainText(/\de-\d|∞/);
+  }
   await manager.close();
 
   for (const [role, link] of [

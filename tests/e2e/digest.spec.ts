@@ -51,5 +51,11 @@ test("the weekly digest goes through SMTP into the local capture with the new si
       `${signal?.make} ${signal?.model} ${signal?.cohort_label}`,
     );
     expect(mail[0]?.html_body).toContain("<h2");
+    // Figures in plain words, faults by name, the organisation's confidence said once.
+    expect(mail[0]?.text_body).toMatch(
+      /: \d+ repairs?, (about [\d.]+ times|no repairs of this in) the rest of the fleet/,
+    );
+    expect(mail[0]?.text_body).toContain("“Likely” and “at least” are at 95% confidence");
+    expect(mail[0]?.text_body).not.toMatch(/∞|\de-\d|[a-z]+-[a-z-]+\/[a-z]/);
   }).toPass({ timeout: 30_000 });
 });

@@ -15,6 +15,20 @@ test("fleet manager: the planted Kestrel K2 cohort tops the refuel analysis; ope
   await expect(first.getByRole("rowheader")).toHaveText("Aurel Kestrel K2");
   await expect(first).toHaveClass(/bg-sea-50/); // the histogram shows this cohort
   await expect(first.getByRole("link", { name: /refuel/i })).toBeVisible(); // its known issue
+  // Its result in words first; the p-value, the method and the exact interval one click away.
+  await expect(first).toContainText(
+    /about [\d.,]+ times what chance predicts, at least [\d.,]+ times/,
+  );
+  const details = first.locator("[data-figure-details]");
+  await expect(details.getByText("p (one-sided exact test)")).toBeHidden();
+  await details.locator("summary").click();
+  await expect(details.getByText("p (one-sided exact test)")).toBeVisible();
+  await expect(details).toContainText(/95% interval/);
+  // No file references, no infinity, no exponent form anywhere on the page.
+  const text = (await page.locator("main").textContent()) ?? "";
+  expect(text).not.toContain("statistics.md");
+  expect(text).not.toContain("∞");
+  expect(text).not.toMatch(/\de-\d/);
 
   const histogram = page.getByTestId("refuel-histogram");
   await expect(histogram.locator("svg").first()).toBeVisible();
@@ -53,17 +67,28 @@ test("shop manager: comeback rates with intervals per technician, and the CSV ex
   await page.waitForURL(/view=technician/);
   const table = page.getByTestId("comeback-rates-technician");
   await expect(table.locator("tbody tr")).not.toHaveCount(0);
-  // Each row: a rate and a 95% interval that contains it.
+  // Each row: a share and the range it likely lies in (at the organisation's 95%), holding it.
+  await expect(
+    table.getByRole("columnheader", { name: "Likely between (95% interval)" }),
+  ).toBeVisible();
   const rows = await table.locator("tbody tr").all();
   expect(rows.length).toBeGreaterThan(2);
   for (const row of rows) {
     const cells = await row.locator("td").allTextContents();
     const rate = parseFloat(cells[2] ?? "");
-    const [lower, upper] = (cells[3] ?? "").split("–").map((s) => parseFloat(s));
+    const [lower, upper] = (cells[3] ?? "").split(" to ").map((s) => parseFloat(s));
     expect(lower).toBeLessThanOrEqual(rate);
     expect(upper).toBeGreaterThanOrEqual(rate);
   }
   await expect(page.getByTestId("comeback-list").locator("tbody tr")).not.toHaveCount(0);
+  // The overall share in words, its method one click away.
+  await expect(
+    page.getByText(/^[\d,]+ of [\d,]+ repairs \([\d.]+%\), likely between/),
+  ).toBeVisible();
+  const method = page.getByText(/Wilson 1927/).first();
+  await expect(method).toBeHidden();
+  await page.locator("[data-figure-details] summary").first().click();
+  await expect(method).toBeVisible();
   await screenshot(page, "comebacks-technician");
 
   await page.getByRole("link", { name: "Technician × job type" }).click();

@@ -8,8 +8,22 @@ test("the shop owner plans stock and exports the purchase list", async ({ page }
   const reorderAt95 = Number(await page.getByTestId("stock-parts-to-reorder").textContent());
   expect(reorderAt95).toBeGreaterThan(0);
   await screenshot(page, "stocking");
-  // Each demand with its range from the rates' uncertainty, as the JSON gives it.
-  await expect(table.getByTestId("demand-interval").first()).toHaveText(/^[\d.,]+–[\d.,]+$/);
+  // Headers say what they mean; each part says which kind of work its demand comes from.
+  const headers = await table.getByRole("columnheader").allTextContents();
+  expect(headers).toContain("Expected shortfall without reorder");
+  expect(headers).toContain("Demand from");
+  expect(headers).not.toContain("Short if not");
+  await expect(table.getByTestId("demand-from").first()).toHaveText(
+    /^(Scheduled service|Wear|Failure)(, (Scheduled service|Wear|Failure)){0,2}$/,
+  );
+  // Each demand with its range from the rates' uncertainty, in words, as the JSON gives it; the
+  // method one click away.
+  await expect(table.getByTestId("demand-interval").first()).toHaveText(
+    /^likely (under )?[\d.,]+ to [\d.,]+$/,
+  );
+  const details = page.locator("[data-figure-details]").first();
+  await details.locator("summary").click();
+  await expect(details).toContainText("Poisson quantile");
   const json = (await (await page.request.get("/api/stocking")).json()) as {
     parts: { expectedDemand: number; demandLower: number | null; demandUpper: number | null }[];
   };
@@ -39,9 +53,15 @@ test("the shop owner plans stock and exports the purchase list", async ({ page }
     .trim()
     .split("\r\n");
   expect(lines[0]).toBe(
-    "part_number,description,component,abc,expected_demand,demand_low,demand_high,period_days,stock_level,on_hand,reorder,unit_cost,reorder_value,expected_shortfall_on_hand",
+    "part_number,description,component,abc,expected_demand,demand_low,demand_high,period_days,stock_level,on_hand,reorder,unit_cost,reorder_value,expected_shortfall_on_hand,demand_kind",
   );
   expect(lines.length - 1).toBe(reorderAt99);
+  // A part to reorder has demand, and the kinds of work behind it, largest first.
+  for (const line of lines.slice(1)) {
+    expect(line.split(",").at(-1)).toMatch(
+      /^(service|wear|failure)(\+(service|wear|failure)){0,2}$/,
+    );
+  }
 
   // A bad setting is answered with a clear message, never a crash.
   const bad = await page.request.get("/api/stocking?serviceLevel=0.5");

@@ -70,7 +70,7 @@ test("a vehicle's timeline: chart on two axes, records table and matching patter
   // The K2 purge-flow signal, in words, with its drill-down link.
   const patterns = page.getByRole("region", { name: "Patterns this vehicle matches" });
   await expect(patterns.getByRole("note")).toContainText("Safety");
-  const link = patterns.getByRole("link", { name: /^Open the pattern P0496, 150,000/ });
+  const link = patterns.getByRole("link", { name: /^Open the pattern P0496 — .+, 150,000/ });
   await expect(link).toHaveCount(1);
   const href = new URL((await link.getAttribute("href")) ?? "", "http://x");
   expect(href.pathname).toBe("/patterns/cell");
@@ -81,11 +81,20 @@ test("a vehicle's timeline: chart on two axes, records table and matching patter
     band: String(vehicle.band_index),
     fault: "dtc:P0496",
   });
+  // In words: the fault by name, the count over the distance driven, the ratio against the rest
+  // of the fleet; the p- and q-value one click away.
   await expect(
     patterns.getByText(
-      /Aurel Kestrel K2, 150,000–175,000 mi, P0496 \(purge flow.*inside the band\./,
+      /^Aurel Kestrel K2, 150,000–175,000 mi, P0496 — Purge flow.*: \d+ repairs in [\d,]+ mi driven: about [\d.]+ per 10,000 mi, likely between .*the rest of the fleet.*inside the band\.$/,
     ),
   ).toBeVisible();
+  const item = patterns.getByRole("listitem").filter({ hasText: "150,000–175,000 mi, P0496 — " });
+  const figures = item.locator("[data-figure-details]");
+  await expect(figures.getByText("p (exact test of the ratio)")).toBeHidden();
+  await figures.locator("summary").click();
+  await expect(figures.getByText("p (exact test of the ratio)")).toBeVisible();
+  await expect(figures.getByText("q (false-discovery rate)")).toBeVisible();
+  await expect(patterns).not.toContainText(/\de-\d|∞|q = /);
 
   await screenshot(page, "vehicle-timeline");
 
@@ -97,4 +106,29 @@ test("a vehicle's timeline: chart on two axes, records table and matching patter
   );
   expect(overflow).toBeLessThanOrEqual(0);
   await screenshot(page, "vehicle-timeline-tablet");
+});
+
+test("a wear pattern is marked as wear and reads as wearing out sooner", async ({ page }) => {
+  // A Northgate vehicle inside, or within one band before, a wear cell above the rest of the fleet.
+  const [row] = await queryDb<{ id: number }>(
+    `select v.id from vehicles v
+       left join generations g on g.id = v.generation_id
+       join cell_stats c on c.organisation_id = v.organisation_id and c.make = v.make
+        and c.model = v.model and c.cohort_label = coalesce(g.label, cast(v.model_year as text))
+        and c.kind = 'wear' and c.ratio_lower > 1 and c.fault_key <> 'all:wear'
+      where v.organisation_id = ?
+        and v.last_odometer_mi >= c.band_from_mi - (c.band_to_mi - c.band_from_mi)
+        and v.last_odometer_mi < c.band_to_mi
+      order by v.id limit 1`,
+    [await orgId("northgate")],
+  );
+  expect(row, "the demo has a wear pattern above the rest of the fleet").toBeDefined();
+  await signIn(page, "shopManager");
+  await page.goto(`/vehicles/${Number(row!.id)}`);
+  const patterns = page.getByRole("region", { name: "Patterns this vehicle matches" });
+  const wear = patterns.getByRole("listitem").filter({ has: page.getByTestId("wear-label") });
+  await expect(wear.first().getByTestId("wear-label")).toHaveText("Wear");
+  await expect(wear.first()).toContainText("wears out sooner than on the rest of the fleet");
+  await expect(wear.first()).toContainText(/\d+ replacements? in [\d,]+ mi driven/);
+  await expect(wear.first()).not.toContainText(/fail/i);
 });

@@ -4,6 +4,7 @@ import { OverviewFigures } from "@/components/home/overview-figures";
 import { PatternPanels } from "@/components/home/pattern-panels";
 import { getDb } from "@/db";
 import { getLatestRun, listRankedCells } from "@/db/queries/cells";
+import { listFaultNames } from "@/db/queries/reference";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { requirePage } from "@/lib/auth/guard";
@@ -20,6 +21,7 @@ export default async function HomePage() {
   ]);
   const signals = signalList.cells;
   const top = topList.cells;
+  const faultNames = await listFaultNames(db, [...signals, ...top]);
   return (
     <>
       <PageHeader
@@ -36,7 +38,8 @@ export default async function HomePage() {
           signals={signals}
           top={top}
           unit={org.distanceUnit}
-          computedAt={run?.finishedAt ?? null}
+          run={run}
+          faultNames={faultNames}
         />
         {can(auth.role, "campaigns:manage") ? (
           <AtRiskPanel unit={org.distanceUnit} />

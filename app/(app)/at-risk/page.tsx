@@ -3,16 +3,24 @@ import Link from "next/link";
 import { z } from "zod";
 import { AddToCampaignForm } from "@/components/campaigns/forms";
 import { buttonClass, inputClass } from "@/components/ui/button";
+import { FigureDetails } from "@/components/ui/figure-details";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { getDb } from "@/db";
 import { getAtRiskVehicles } from "@/db/queries/at-risk";
 import { listCampaigns } from "@/db/queries/campaigns";
 import { requirePage } from "@/lib/auth/guard";
-import { formatInterval, formatMoney, formatSig } from "@/lib/format";
+import { formatMoney } from "@/lib/format";
+import {
+  countOf,
+  describeOutlook,
+  formatPlain,
+  formatRange,
+  intervalLabel,
+} from "@/lib/plain-words";
 import { formatDistance, unitToMiles } from "@/lib/units";
 import { queryValues, type PageSearchParams } from "@/lib/search-params";
-import { AT_RISK_HORIZON } from "@/lib/at-risk";
+import { AT_RISK_HORIZON, AT_RISK_METHOD } from "@/lib/at-risk";
 
 export const metadata: Metadata = { title: "At risk" };
 
@@ -36,6 +44,7 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
   });
   const campaigns = await listCampaigns(db, auth);
   const totalExpected = rows.reduce((s, r) => s + r.expected, 0);
+  const horizon = `${next.toLocaleString("en-GB")} ${unit}`;
   return (
     <>
       <PageHeader
@@ -55,15 +64,16 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
             Download CSV
           </a>
           <p className="text-ink-soft">
-            {rows.length} vehicle–issue pairs; {formatSig(totalExpected, 3)} failures expected in
-            all over the next {next.toLocaleString("en-GB")} {unit} each. Fix cost = parts + typical
-            hours at this organisation&apos;s median labour rate ({formatMoney(labourPerHourCents)}
-            /h), or the average cost of past repairs of the fault for a signal. The interval under
-            each expected count comes from the uncertainty of the cohort&apos;s rates (their gamma
-            posteriors, summed over the bands the vehicle drives through); it says nothing about how
-            far the vehicle will actually drive.
+            {countOf(rows.length, "vehicle and fault", "vehicles and faults")} to watch; in all,
+            about {formatPlain(totalExpected)} failures expected over the next {horizon} of each
+            vehicle. Cost to fix first = parts + typical hours at this organisation&apos;s median
+            labour rate ({formatMoney(labourPerHourCents)}/h), or the average cost of past repairs
+            of the fault for a signal. &ldquo;Likely between&rdquo; is the{" "}
+            {intervalLabel(confidence)}: it allows for how sure the cohort&apos;s rates are, not for
+            how far the vehicle will actually drive.
           </p>
         </form>
+        <FigureDetails rows={[["Method", AT_RISK_METHOD]]} />
       </Panel>
       <Panel title="Watch-list" className="mt-4">
         {rows.length === 0 ? (
@@ -86,9 +96,9 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
                       "Cohort",
                       "Odometer",
                       "Why",
-                      "Range starts in",
-                      `Expected failures (${Math.round(confidence * 100)}% interval)`,
-                      "Fix first",
+                      "Distance to its mileage range",
+                      `Failures expected over the next ${horizon}`,
+                      "Cost to fix first",
                     ].map((h, i) => (
                       <th
                         key={h}
@@ -127,22 +137,34 @@ export default async function AtRiskPage({ searchParams }: { searchParams: PageS
                           {r.source.kind === "known-issue" ? (
                             <Link href={`/known-issues/${r.source.id}`}>{r.source.title}</Link>
                           ) : (
-                            <span>signal: {r.source.label}</span>
+                            <span>Signal: {r.source.label}</span>
                           )}
                         </td>
                         <td className="py-1 pr-3 text-right tabular-nums">
                           {r.toRangeMi === 0 ? "inside" : formatDistance(r.toRangeMi, unit)}
                         </td>
-                        <td className="py-1 pr-3 text-right tabular-nums">
-                          {formatSig(r.expected, 2)}
-                          {r.expectedLower !== null && r.expectedUpper !== null ? (
-                            <span
-                              className="block text-xs text-ink-soft"
-                              data-testid="expected-interval"
-                            >
-                              {formatInterval(r.expectedLower, r.expectedUpper)}
-                            </span>
-                          ) : null}
+                        <td className="min-w-56 py-1 pr-3 text-right">
+                          <span data-testid="expected">
+                            {describeOutlook({
+                              expected: r.expected,
+                              lower: r.expectedLower,
+                              upper: r.expectedUpper,
+                              noun: ["failure"],
+                            })}
+                          </span>
+                          <FigureDetails
+                            summary="Figures"
+                            className="text-left"
+                            rows={[
+                              ["Expected failures", formatPlain(r.expected)],
+                              [
+                                r.expectedLower === null ? "Interval" : intervalLabel(confidence),
+                                r.expectedLower === null
+                                  ? "not yet: the next recompute gives one"
+                                  : formatRange(r.expectedLower, r.expectedUpper),
+                              ],
+                            ]}
+                          />
                         </td>
                         <td className="py-1 text-right tabular-nums">
                           {r.fixCostCents === null ? "—" : formatMoney(r.fixCostCents)}

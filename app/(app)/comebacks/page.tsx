@@ -2,13 +2,16 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { z } from "zod";
 import { buttonClass, inputClass } from "@/components/ui/button";
+import { FigureCard } from "@/components/ui/figure-card";
+import { FigureDetails } from "@/components/ui/figure-details";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { getDb } from "@/db";
 import { getComebackReport } from "@/db/queries/comebacks";
 import { requirePage } from "@/lib/auth/guard";
 import type { ComebackLine, ComebackRate } from "@/lib/comeback-rates";
-import { formatSig, numberFormat } from "@/lib/format";
+import { numberFormat } from "@/lib/format";
+import { describeShare, formatPercent, formatPlain, intervalLabel } from "@/lib/plain-words";
 import { milesToUnit } from "@/lib/units";
 import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
 
@@ -36,18 +39,23 @@ const ComebackPageQuery = z.object({
 /** Rows of the comeback list shown on the page; the CSV has them all. */
 const LIST_LIMIT = 25;
 
-const pct = (v: number | null) => (v === null ? "—" : `${formatSig(v * 100, 2)}%`);
+const pct = formatPercent;
+/** A share to two significant figures for the details: "8.4%", "0.53%". */
+const exactPct = (v: number | null) => (v === null ? "—" : `${formatPlain(v * 100)}%`);
+const METHOD = "Wilson score interval for a proportion (Wilson 1927)";
 
 function RateTable({
   rows,
   firstColumn,
   caption,
   testId,
+  confidence,
 }: {
   rows: (ComebackRate & { group?: string })[];
   firstColumn: string;
   caption: string;
   testId: string;
+  confidence: number;
 }) {
   const scaleMax = Math.max(0.05, ...rows.map((r) => r.upper ?? 0));
   return (
@@ -63,13 +71,13 @@ function RateTable({
               Repairs
             </th>
             <th scope="col" className="py-1 pr-3 text-right font-medium">
-              Comebacks
+              Came back
             </th>
             <th scope="col" className="py-1 pr-3 text-right font-medium">
-              Rate
+              Share that came back
             </th>
             <th scope="col" className="py-1 pr-3 text-right font-medium">
-              95% interval
+              Likely between ({intervalLabel(confidence)})
             </th>
             <th scope="col" className="w-48 py-1 font-medium">
               <span className="sr-only">Interval drawn on a scale of 0 to </span>
@@ -88,7 +96,7 @@ function RateTable({
               <td className="py-1 pr-3 text-right tabular-nums">{r.comebacks}</td>
               <td className="py-1 pr-3 text-right font-semibold tabular-nums">{pct(r.rate)}</td>
               <td className="py-1 pr-3 text-right tabular-nums">
-                {pct(r.lower)}–{pct(r.upper)}
+                {pct(r.lower)} to {pct(r.upper)}
               </td>
               <td className="py-1" aria-hidden="true">
                 <div className="relative h-3 w-48 rounded bg-sea-50">
@@ -141,6 +149,7 @@ export default async function ComebacksPage({ searchParams }: { searchParams: Pa
   const { query: q, problem } = parseOrDefaults(ComebackPageQuery, await queryValues(searchParams));
   const r = await getComebackReport(await getDb(), auth);
   const unit = r.settings.unit;
+  const confidence = r.settings.confidence;
   const enough = (x: ComebackRate) => x.repairs >= q.min;
   const tables: Record<View, (ComebackRate & { group?: string })[]> = {
     fault: r.byFault.filter(enough),
@@ -176,26 +185,45 @@ export default async function ComebacksPage({ searchParams }: { searchParams: Pa
       ) : null}
 
       <div className="grid gap-4 sm:grid-cols-4">
-        {[
-          ["Repairs", numberFormat(0).format(r.repairs), "repair lines naming a DTC or component"],
-          ["Comebacks", numberFormat(0).format(r.comebacks), "repairs followed by a return"],
-          [
-            "Comeback rate",
-            pct(r.overall.rate),
-            `95% ${pct(r.overall.lower)}–${pct(r.overall.upper)} (Wilson)`,
-          ],
-          [
-            "Window still open",
-            numberFormat(0).format(r.stillOpen),
-            `repairs within ${r.settings.days} days of the latest (${r.asOf ?? "—"}); left out`,
-          ],
-        ].map(([label, value, note]) => (
-          <Panel key={label}>
-            <p className="text-sm text-ink-soft">{label}</p>
-            <p className="text-2xl font-semibold tabular-nums">{value}</p>
-            <p className="text-xs text-ink-soft">{note}</p>
-          </Panel>
-        ))}
+        <FigureCard
+          label="Repairs"
+          value={numberFormat(0).format(r.repairs)}
+          note="repair lines naming a DTC or component"
+        />
+        <FigureCard
+          label="Comebacks"
+          value={numberFormat(0).format(r.comebacks)}
+          note="repairs followed by a return"
+        />
+        <FigureCard
+          label="Share that came back"
+          value={pct(r.overall.rate)}
+          testId="comeback-share"
+          note={describeShare({
+            count: r.comebacks,
+            of: r.repairs,
+            lower: r.overall.lower,
+            upper: r.overall.upper,
+            noun: ["repair"],
+          })}
+          details={
+            <FigureDetails
+              rows={[
+                ["Share", exactPct(r.overall.rate)],
+                [
+                  intervalLabel(confidence),
+                  `${exactPct(r.overall.lower)} to ${exactPct(r.overall.upper)}`,
+                ],
+                ["Method", METHOD],
+              ]}
+            />
+          }
+        />
+        <FigureCard
+          label="Window still open"
+          value={numberFormat(0).format(r.stillOpen)}
+          note={`repairs within ${r.settings.days} days of the latest (${r.asOf ?? "—"}); left out`}
+        />
       </div>
 
       <Panel title="Comeback rates" className="mt-4">
@@ -228,10 +256,10 @@ export default async function ComebacksPage({ searchParams }: { searchParams: Pa
             Apply
           </button>
         </form>
-        <p className="mb-3 text-sm text-ink-soft">
-          Rate = repairs followed by a comeback ÷ repairs, with the 95% Wilson score interval
-          (Wilson 1927); highest lower bound first, so a small group with a wide interval does not
-          top the list.{" "}
+        <p className="text-sm text-ink-soft">
+          Share that came back = repairs followed by a comeback ÷ repairs; &ldquo;likely
+          between&rdquo; is its {intervalLabel(confidence)}. Highest lower end first, so a small
+          group with a wide range does not top the list.{" "}
           {q.view === "fix"
             ? "A fix is the component plus the action its correction names first (replace, clean, adjust, repair, reprogram, clear codes / no fault found, service); repair lines carry no labour operation code. "
             : ""}
@@ -243,6 +271,7 @@ export default async function ComebacksPage({ searchParams }: { searchParams: Pa
             : "A repair counts as come back when any of its faults returned. "}
           Repairs with no DTC and no component ({r.noFault}) cannot be matched and are left out.
         </p>
+        <FigureDetails className="mb-3" rows={[["Method", METHOD]]} />
         {tables[q.view].length === 0 ? (
           <p className="text-sm text-ink-soft">No group has {q.min} or more repairs.</p>
         ) : (
@@ -251,6 +280,7 @@ export default async function ComebacksPage({ searchParams }: { searchParams: Pa
             firstColumn={firstColumn[q.view]}
             caption={`Comeback rates, ${VIEWS.find(([v]) => v === q.view)?.[1] ?? ""}`}
             testId={`comeback-rates-${q.view}`}
+            confidence={confidence}
           />
         )}
       </Panel>
@@ -289,7 +319,7 @@ export default async function ComebacksPage({ searchParams }: { searchParams: Pa
                   className="border-t border-line/60 align-top"
                 >
                   <td className="py-2 pr-3 text-sm">
-                    {p.faults.join(", ")}
+                    {p.faults.join("; ")}
                     <br />
                     <Link href={`/vehicles/${p.first.vehicleId}`} className="text-xs">
                       Vehicle history

@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { buttonClass, inputClass } from "@/components/ui/button";
+import { FigureCard } from "@/components/ui/figure-card";
+import { FigureDetails } from "@/components/ui/figure-details";
 import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { SinceFillUpChart, type SinceFillUpBar } from "@/components/refuel/since-fill-up-chart";
@@ -9,13 +11,23 @@ import { getOrganisation } from "@/db/queries/organisations";
 import { getRefuelAnalysis, type RefuelRow, type RefuelSymptom } from "@/db/queries/refuel";
 import { requirePage } from "@/lib/auth/guard";
 import { can } from "@/lib/auth/roles";
-import { formatInterval, formatSig, numberFormat } from "@/lib/format";
+import { numberFormat } from "@/lib/format";
+import {
+  describeAgainstChance,
+  formatPlain,
+  formatProbability,
+  formatRange,
+  intervalLabel,
+} from "@/lib/plain-words";
 import { RefuelPageQuery } from "@/lib/refuel-request";
 import { milesToUnit, unitToMiles } from "@/lib/units";
 import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
 import { VehicleLink } from "@/components/vehicles/vehicle-link";
 
 export const metadata: Metadata = { title: "Refuel analysis" };
+
+const METHOD =
+  "One-sided exact test of the count within the window, each event with its own chance (Poisson-binomial; Hong 2013). Interval: exact Poisson (Garwood) limits of the count, divided by what chance predicts.";
 
 const SYMPTOM_CHOICES = [
   ["both", "Stalls and no-starts"],
@@ -24,6 +36,23 @@ const SYMPTOM_CHOICES = [
 ] as const;
 
 const cohortLabel = (key: string) => key.split("|").join(" ");
+
+/** A test result in words, with its exact figures one click away. */
+function AgainstChance({ row, confidence }: { row: RefuelRow; confidence: number }) {
+  return (
+    <>
+      {describeAgainstChance(row)}
+      <FigureDetails
+        summary="Figures"
+        rows={[
+          ["Observed ÷ chance", formatPlain(row.ratio)],
+          [intervalLabel(confidence), formatRange(row.lower, row.upper)],
+          ["p (one-sided exact test)", formatProbability(row.pValue)],
+        ]}
+      />
+    </>
+  );
+}
 
 export default async function RefuelPage({ searchParams }: { searchParams: PageSearchParams }) {
   const auth = await requirePage("refuel:read");
@@ -64,8 +93,7 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
       ? `All vehicles: ${what} by ${unit} since the last fill-up`
       : `${cohortLabel(r.histogram.cohort)}: ${what} by ${unit} since the last fill-up`;
 
-  const ratioCell = (row: RefuelRow) =>
-    `${formatSig(row.ratio)} (${formatInterval(row.lower, row.upper)})`;
+  const within = `Within ${window} ${unit} of a fill-up`;
   const settings = (cohort?: string) =>
     new URLSearchParams({
       window: String(window),
@@ -138,39 +166,47 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
       </Panel>
 
       <div className="mt-4 grid gap-4 sm:grid-cols-4">
-        {[
-          ["Events", String(r.fleet.events), `${what} with an odometer reading`],
-          [
-            `Within ${window} ${unit}`,
-            `${r.fleet.observed}`,
-            `chance predicts ${formatSig(r.fleet.expected)}`,
-          ],
-          [
-            "Observed ÷ chance",
-            formatSig(r.fleet.ratio),
-            `95% ${formatInterval(r.fleet.lower, r.fleet.upper)}, p ${formatSig(r.fleet.pValue, 2)}`,
-          ],
-          [
-            "No fuel data",
-            String(r.fleet.noFuelData),
-            `events with no fill-up in the previous ${dist(1000)} ${unit}`,
-          ],
-        ].map(([label, value, note]) => (
-          <Panel key={label}>
-            <p className="text-sm text-ink-soft">{label}</p>
-            <p className="text-2xl font-semibold tabular-nums">{value}</p>
-            <p className="text-xs text-ink-soft">{note}</p>
-          </Panel>
-        ))}
+        <FigureCard
+          label="Events"
+          value={String(r.fleet.events)}
+          note={`${what} with an odometer reading`}
+        />
+        <FigureCard
+          label={within}
+          value={String(r.fleet.observed)}
+          note={`chance predicts about ${formatPlain(r.fleet.expected)}`}
+        />
+        <FigureCard
+          label="Against chance"
+          value={Number.isFinite(r.fleet.ratio) ? `${formatPlain(r.fleet.ratio)} times` : "—"}
+          note={describeAgainstChance(r.fleet)}
+          details={
+            <FigureDetails
+              rows={[
+                ["Observed ÷ chance", formatPlain(r.fleet.ratio)],
+                [intervalLabel(r.confidence), formatRange(r.fleet.lower, r.fleet.upper)],
+                ["p (one-sided exact test)", formatProbability(r.fleet.pValue)],
+                ["Method", METHOD],
+              ]}
+            />
+          }
+        />
+        <FigureCard
+          label="No fuel data"
+          value={String(r.fleet.noFuelData)}
+          note={`events with no fill-up in the previous ${dist(1000)} ${unit}`}
+        />
       </div>
 
       <Panel title="Cohorts" className="mt-4">
-        <p className="mb-3 text-sm text-ink-soft">
-          Strongest evidence first (one-sided exact p-value). Chance: each event is equally likely
-          anywhere between the fill-ups around it, so it falls within the window with probability
-          window ÷ that refuelling interval; the sum is what chance predicts (statistics.md §7).
-          Interval: exact Poisson (Garwood) limits of the observed count, divided by chance.
+        <p className="text-sm text-ink-soft">
+          Strongest evidence first: the cohorts whose events come soon after a fill-up least likely
+          by chance. Chance: an event is equally likely anywhere between the fill-ups around it, so
+          it falls within the window as often as the window is a share of that distance between
+          fill-ups; added up over the events, that is what chance predicts. &ldquo;Likely
+          between&rdquo; is the {intervalLabel(r.confidence)}.
         </p>
+        <FigureDetails className="mb-3" rows={[["Method", METHOD]]} />
         {r.cohorts.length === 0 ? (
           <p className="text-sm text-ink-soft">No {what} with an odometer reading on record.</p>
         ) : (
@@ -183,17 +219,16 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
                     "Cohort",
                     "Vehicles",
                     "Events",
-                    `Within ${window} ${unit}`,
+                    within,
                     "Chance predicts",
-                    "Observed ÷ chance (95%)",
-                    "p",
+                    "Against chance",
                     "No fuel data",
                     "Known issue",
                   ].map((h, i) => (
                     <th
                       key={h}
                       scope="col"
-                      className={`py-1 pr-3 font-medium ${i >= 1 && i <= 7 ? "text-right" : ""}`}
+                      className={`py-1 pr-3 font-medium ${i >= 1 && i <= 6 && i !== 5 ? "text-right" : ""}`}
                     >
                       {h}
                     </th>
@@ -222,10 +257,11 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
                       <td className="py-1 pr-3 text-right font-semibold tabular-nums">
                         {c.observed}
                       </td>
-                      <td className="py-1 pr-3 text-right tabular-nums">{formatSig(c.expected)}</td>
-                      <td className="py-1 pr-3 text-right tabular-nums">{ratioCell(c)}</td>
                       <td className="py-1 pr-3 text-right tabular-nums">
-                        {formatSig(c.pValue, 2)}
+                        {formatPlain(c.expected)}
+                      </td>
+                      <td className="min-w-48 py-1 pr-3">
+                        <AgainstChance row={c} confidence={r.confidence} />
                       </td>
                       <td className="py-1 pr-3 text-right tabular-nums">{c.noFuelData}</td>
                       <td className="py-1">
@@ -248,11 +284,14 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
         )}
       </Panel>
 
-      <Panel title="Miles since the last fill-up" className="mt-4">
+      <Panel
+        title={`${unit === "km" ? "Kilometres" : "Miles"} since the last fill-up`}
+        className="mt-4"
+      >
         <p className="mb-2 text-sm text-ink-soft">
           {histogramTitle}: {r.histogram.measured} events measured
           {histogramCohort
-            ? `, ${histogramCohort.observed} within ${window} ${unit} where chance predicts ${formatSig(histogramCohort.expected)}`
+            ? `, ${histogramCohort.observed} within ${window} ${unit} where chance predicts about ${formatPlain(histogramCohort.expected)}`
             : ""}
           . A cluster shows as dark bars well above the chance bars at the left.
         </p>
@@ -279,7 +318,7 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
                 <tr key={b.bin}>
                   <td className="pr-4">{b.bin}</td>
                   <td className="pr-4 text-right tabular-nums">{b.observed}</td>
-                  <td className="text-right tabular-nums">{formatSig(b.chance, 2)}</td>
+                  <td className="text-right tabular-nums">{formatPlain(b.chance)}</td>
                 </tr>
               ))}
             </tbody>
@@ -290,7 +329,7 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
       <Panel title="Vehicles to look at first" className="mt-4">
         <p className="mb-3 text-sm text-ink-soft">
           Each vehicle tested against its own fill-ups, strongest evidence first. With few events
-          per vehicle a single p-value is weak on its own; read it with the cohort&apos;s.
+          per vehicle, one vehicle&apos;s result is weak on its own: read it with its cohort&apos;s.
         </p>
         {r.vehicles.length === 0 ? (
           <p className="text-sm text-ink-soft">No vehicles with {what}.</p>
@@ -304,17 +343,17 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
                     "#",
                     "Vehicle",
                     "Cohort",
-                    "Typical refuelling interval",
+                    "Typical distance between fill-ups",
                     "Events",
-                    `Within ${window} ${unit}`,
+                    within,
                     "Chance predicts",
-                    "p",
-                    `${unit} since fill-up, each event`,
+                    "Against chance",
+                    `${unit} after the last fill-up, each event`,
                   ].map((h, i) => (
                     <th
                       key={h}
                       scope="col"
-                      className={`py-1 pr-3 font-medium ${i >= 3 && i <= 7 ? "text-right" : ""}`}
+                      className={`py-1 pr-3 font-medium ${i >= 3 && i <= 6 ? "text-right" : ""}`}
                     >
                       {h}
                     </th>
@@ -343,12 +382,12 @@ export default async function RefuelPage({ searchParams }: { searchParams: PageS
                         {v.observed}
                       </td>
                       <td className="py-1 pr-3 text-right tabular-nums">
-                        {formatSig(v.expected, 2)}
+                        {formatPlain(v.expected)}
                       </td>
-                      <td className="py-1 pr-3 text-right tabular-nums">
-                        {formatSig(v.pValue, 2)}
+                      <td className="min-w-48 py-1 pr-3">
+                        <AgainstChance row={v} confidence={r.confidence} />
                       </td>
-                      <td className="py-1 font-mono text-[13px]">
+                      <td className="py-1 tabular-nums">
                         {v.sinceMi.map((s) => (s === null ? "no fuel data" : dist(s))).join(", ")}
                       </td>
                     </tr>

@@ -5,9 +5,13 @@ import { PageHeader } from "@/components/ui/page-header";
 import { Panel } from "@/components/ui/panel";
 import { getDb } from "@/db";
 import { getStockingPlan } from "@/db/queries/stocking";
+import { FigureDetails } from "@/components/ui/figure-details";
 import { requirePage } from "@/lib/auth/guard";
 import { can } from "@/lib/auth/roles";
-import { formatInterval, formatMoney, formatSig } from "@/lib/format";
+import { KIND_LABELS } from "@/lib/component-kinds";
+import { formatMoney } from "@/lib/format";
+import { formatConfidence, formatPlain, intervalLabel } from "@/lib/plain-words";
+import { demandKinds } from "@/lib/stocking";
 import { SERVICE_LEVELS, StockingQuery } from "@/lib/stocking-request";
 import { parseOrDefaults, queryValues, type PageSearchParams } from "@/lib/search-params";
 
@@ -94,8 +98,7 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
           </label>
           <label className="flex items-center gap-2 pb-2">
             <input type="checkbox" name="cautious" value="1" defaultChecked={q.cautious} />
-            Cautious: use the upper end of each rate&apos;s {Math.round(plan.confidence * 100)}%
-            interval
+            Cautious: use the upper end of each rate&apos;s {intervalLabel(plan.confidence)}
           </label>
           <label className="flex items-center gap-2 pb-2">
             <input type="checkbox" name="only" value="all" defaultChecked={q.only === "all"} />
@@ -141,19 +144,46 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
 
       <Panel title={q.only === "all" ? "Every part" : "Parts to reorder"} className="mt-4">
         <div className="mb-3 flex flex-wrap items-center justify-between gap-2 text-sm">
-          <p className="text-ink-soft">
-            Expected demand over each part&apos;s lead time + {q.reviewDays} review days, from the
-            failure rate of its component for each vehicle&apos;s cohort and mileage band (
-            {q.cautious
-              ? `upper end of its ${Math.round(plan.confidence * 100)}% interval`
-              : "shrunk estimate"}
-            ) × the vehicle&apos;s miles per day. Stock level: the smallest stock that covers a
-            Poisson demand with {Math.round(q.serviceLevel * 100)}% probability. ABC by yearly
-            demand value.{" "}
-            {q.cautious
-              ? "No range under the demand: with the cautious option it is already an upper bound."
-              : `Under each demand, its range at ${Math.round(plan.confidence * 100)}% confidence from the uncertainty of the rates (their gamma posteriors); the stock level also covers the chance variation of the repairs themselves.`}
-          </p>
+          <div className="max-w-3xl">
+            <p className="text-ink-soft">
+              Expected demand over each part&apos;s lead time + {q.reviewDays} review days: how
+              often its component is repaired or serviced on each vehicle&apos;s cohort at its
+              mileage, times how far the vehicle drives a day, times the parts one job uses. Stock
+              level: the smallest stock that runs short in no more than{" "}
+              {formatPlain(100 - q.serviceLevel * 100)}% of periods.{" "}
+              {q.cautious
+                ? `Cautious: each rate is taken at the upper end of its ${intervalLabel(plan.confidence)}, so the demand is already a high estimate and has no range under it.`
+                : "Under each demand, the range it likely falls in given how sure the rates are; the stock level also covers the chance ups and downs of the jobs themselves."}
+            </p>
+            <FigureDetails
+              rows={[
+                [
+                  "Rates",
+                  q.cautious
+                    ? `Upper end of each cohort × mileage band × component rate's ${intervalLabel(plan.confidence)}`
+                    : "Each cohort × mileage band × component rate's shrunk (empirical-Bayes) estimate",
+                ],
+                [
+                  "Range under the demand",
+                  q.cautious
+                    ? "None with the cautious option"
+                    : `${intervalLabel(plan.confidence)} of the sum of the rates' gamma posteriors, weighted by the miles and parts per job`,
+                ],
+                [
+                  "Stock level",
+                  `Poisson quantile of the expected demand at ${formatConfidence(q.serviceLevel)}`,
+                ],
+                [
+                  "Expected shortfall without reorder",
+                  "Expected units short per period with only the stock on hand (Poisson demand)",
+                ],
+                [
+                  "ABC class",
+                  "By yearly demand value: A the first 80%, B the next 15%, C the rest",
+                ],
+              ]}
+            />
+          </div>
           <a href={`/api/stocking?${query}&format=csv`} className={buttonClass.secondary}>
             Download purchase list (CSV)
           </a>
@@ -170,15 +200,16 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
               <thead className="text-ink-soft">
                 <tr>
                   {[
-                    "Part",
+                    "Part number",
                     "Component",
-                    "ABC",
-                    "Demand",
-                    "Stock level",
+                    "Demand from",
+                    "ABC class",
+                    "Expected demand over the period",
+                    "Stock level to hold",
                     "On hand",
                     "Reorder",
-                    "Short if not",
-                    "Value",
+                    "Expected shortfall without reorder",
+                    "Reorder value",
                   ].map((h, i) => (
                     <th
                       key={h}
@@ -202,28 +233,28 @@ export default async function StockingPage({ searchParams }: { searchParams: Pag
                       )}
                     </td>
                     <td className="py-1 pr-3">{p.component ?? p.description ?? "—"}</td>
+                    <td className="py-1 pr-3" data-testid="demand-from">
+                      {demandKinds(p.demandByKind)
+                        .map((k) => KIND_LABELS[k])
+                        .join(", ") || "—"}
+                    </td>
                     <td className="py-1 pr-3 text-right font-semibold">{p.abc}</td>
-                    <td
-                      className="py-1 pr-3 text-right tabular-nums"
-                      title={`over ${p.periodDays} days`}
-                    >
-                      {formatSig(p.expectedDemand, 3)}
+                    <td className="py-1 pr-3 text-right tabular-nums">
+                      {formatPlain(p.expectedDemand)}
                       {p.demandLower !== null && p.demandUpper !== null ? (
                         <span className="block text-xs text-ink-soft" data-testid="demand-interval">
-                          {formatInterval(p.demandLower, p.demandUpper)}
+                          likely {formatPlain(p.demandLower)} to {formatPlain(p.demandUpper)}
                         </span>
                       ) : null}
+                      <span className="block text-xs text-ink-soft">over {p.periodDays} days</span>
                     </td>
                     <td className="py-1 pr-3 text-right tabular-nums">{p.stockLevel}</td>
                     <td className="py-1 pr-3 text-right tabular-nums">{p.onHand}</td>
                     <td className="py-1 pr-3 text-right font-semibold tabular-nums">
                       {p.reorder || "—"}
                     </td>
-                    <td
-                      className="py-1 pr-3 text-right tabular-nums"
-                      title="expected units short per period with the stock on hand"
-                    >
-                      {formatSig(p.shortfallOnHand, 2)}
+                    <td className="py-1 pr-3 text-right tabular-nums">
+                      {formatPlain(p.shortfallOnHand)}
                     </td>
                     <td className="py-1 text-right tabular-nums">
                       {p.unitCostCents === null ? "—" : formatMoney(p.unitCostCents * p.reorder)}

@@ -34,6 +34,8 @@ const CSV_COLUMNS = [
 /**
  * The organisation's comeback report (JSON), or as CSV the list of comebacks with both repair
  * orders side by side, safe to open in a spreadsheet (toCsv guards against formula injection).
+ * `faults` names each fault (a DTC with its description, or "System → Component"), joined by
+ * "; ".
  */
 export const GET = apiRoute("comebacks:read", async (req, auth) => {
   const q = ComebackQuery.safeParse(Object.fromEntries(new URL(req.url).searchParams));
@@ -45,7 +47,7 @@ export const GET = apiRoute("comebacks:read", async (req, auth) => {
   const body = toCsv(
     [...CSV_COLUMNS],
     report.pairs.map((p) => [
-      p.faults.join(" "),
+      p.faults.join("; "),
       p.days,
       p.miles === null ? null : Math.round(p.miles),
       p.first.vehicleId,

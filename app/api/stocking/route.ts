@@ -2,6 +2,7 @@ import { getDb } from "@/db";
 import { getStockingPlan } from "@/db/queries/stocking";
 import { toCsv } from "@/lib/import";
 import { apiRoute, jsonError } from "@/lib/auth/guard";
+import { demandKinds } from "@/lib/stocking";
 import { StockingQuery } from "@/lib/stocking-request";
 
 export const dynamic = "force-dynamic";
@@ -21,11 +22,13 @@ const CSV_COLUMNS = [
   "unit_cost",
   "reorder_value",
   "expected_shortfall_on_hand",
+  "demand_kind",
 ] as const;
 
 /**
  * The stocking plan of the customer base (JSON), or as CSV the purchase list: parts to reorder
- * with quantities and values, safe to open in a spreadsheet.
+ * with quantities and values, and the kinds of work their demand comes from (`demand_kind`:
+ * service, wear, failure, joined with "+" largest first), safe to open in a spreadsheet.
  */
 export const GET = apiRoute("stocking:read", async (req, auth) => {
   const q = StockingQuery.safeParse(Object.fromEntries(new URL(req.url).searchParams));
@@ -51,6 +54,7 @@ export const GET = apiRoute("stocking:read", async (req, auth) => {
       p.unitCostCents === null ? null : (p.unitCostCents / 100).toFixed(2),
       p.unitCostCents === null ? null : ((p.unitCostCents * p.reorder) / 100).toFixed(2),
       Number(p.shortfallOnHand.toFixed(3)),
+      demandKinds(p.demandByKind).join("+"),
     ]),
     { withBom: true },
   );

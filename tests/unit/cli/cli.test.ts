@@ -155,10 +155,23 @@ describe("command line", () => {
     expect(parts.length).toBeGreaterThan(100);
     for (const p of parts) {
       expect(Object.keys(p).sort()).toEqual(
-        ["component", "expectedDemand", "onHand", "partNumber", "reorder", "stockLevel"].sort(),
+        [
+          "component",
+          "demandKind",
+          "expectedDemand",
+          "onHand",
+          "partNumber",
+          "reorder",
+          "stockLevel",
+        ].sort(),
       );
       expect(p.reorder).toBe(Math.max(0, Number(p.stockLevel) - Number(p.onHand)));
+      // The kinds of work behind the demand, largest first; none for a part nobody needs.
+      expect(p.demandKind).toMatch(/^((service|wear|failure)(\+(service|wear|failure)){0,2})?$/);
+      if (p.demandKind === "") expect(p.expectedDemand).toBe(0);
     }
+    expect(parts.some((p) => String(p.demandKind).includes("failure"))).toBe(true);
+    expect(parts.some((p) => String(p.demandKind).includes("service"))).toBe(true);
     const bad = await recurra("stock", "--org", "northgate", "--service-level", "0.5", "--json");
     expect(bad.code).toBe(1);
     expect(json(bad.stdout).error).toMatch(/Choose 80%/);

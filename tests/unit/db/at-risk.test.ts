@@ -118,6 +118,22 @@ describe("the at-risk watch-list and campaign lists on the demo", () => {
     expect(Number(fixed?.n)).toBe(0);
   });
 
+  test("a signal's fault is named as people name it, never by its slug", async () => {
+    const { rows } = await getAtRiskVehicles(db, fleet, { nextMiles: 10_000 });
+    const signals = rows.flatMap((r) => (r.source.kind === "signal" ? [r.source] : []));
+    expect(signals.length).toBeGreaterThan(0);
+    const names = await db.all<{ key: string; name: string }>(sql`
+      select 'dtc:' || code as key, code || ' — ' || description as name from dtc_codes
+      union all
+      select 'component:' || slug, system || ' → ' || name from components`);
+    const nameOf = new Map(names.map((n) => [n.key, n.name]));
+    for (const s of signals) {
+      expect(s.label).toBe(nameOf.get(s.faultKey));
+      if (s.faultKey.startsWith("component:"))
+        expect(s.label).not.toContain(s.faultKey.slice("component:".length));
+    }
+  });
+
   test("campaign lists: add, no duplicates, done and undone; organisations and roles enforced", async () => {
     const { rows } = await getAtRiskVehicles(db, fleet, { nextMiles: 10_000 });
     const ids = [...new Set(rows.map((r) => r.vehicleId))].slice(0, 3);

@@ -1,3 +1,4 @@
+import { eq, sql } from "drizzle-orm";
 import seedrandom from "seedrandom";
 import { beforeAll, describe, expect, test } from "vitest";
 import type { Db } from "@/db";
@@ -12,9 +13,11 @@ import {
   fuelTransactions,
   knownIssueCohorts,
   knownIssues,
+  organisations,
   repairLines,
   repairOrders,
 } from "@/db/schema";
+import { poissonInterval, wilsonInterval } from "@/lib/stats";
 import { createTestDb } from "../../support/test-db";
 
 let db: Db;
@@ -144,6 +147,34 @@ describe("post-refuel stall finder on generated fleets (statistics.md §7)", () 
     expect(r.histogram.cohort).toBe(top!.key);
     expect(r.histogram.bins[0]!.observed + r.histogram.bins[1]!.observed).toBe(48);
     expect(r.histogram.bins[0]!.chance).toBeLessThan(2);
+  });
+
+  test("the ratio's interval is at the organisation's confidence level", async () => {
+    const at95 = await getRefuelAnalysis(db, planted, 20);
+    expect(at95.confidence).toBe(0.95);
+    await db
+      .update(organisations)
+      .set({ confidenceLevel: 0.8 })
+      .where(eq(organisations.id, planted.organisationId));
+    try {
+      const at80 = await getRefuelAnalysis(db, planted, 20);
+      expect(at80.confidence).toBe(0.8);
+      const [top] = at80.cohorts;
+      // Exact Poisson (Garwood) limits of the observed count, divided by what chance predicts.
+      const limits = poissonInterval(top!.observed, top!.expected, 0.8);
+      expect(top!.lower).toBeCloseTo(limits.lower, 10);
+      expect(top!.upper).toBeCloseTo(limits.upper, 10);
+      // A lower level gives a narrower interval around the same ratio and p-value.
+      expect(top!.lower).toBeGreaterThan(at95.cohorts[0]!.lower);
+      expect(top!.upper).toBeLessThan(at95.cohorts[0]!.upper);
+      expect(top!.ratio).toBe(at95.cohorts[0]!.ratio);
+      expect(top!.pValue).toBe(at95.cohorts[0]!.pValue);
+    } finally {
+      await db
+        .update(organisations)
+        .set({ confidenceLevel: 0.95 })
+        .where(eq(organisations.id, planted.organisationId));
+    }
   });
 
   test("without a plant no cohort stands out", async () => {
@@ -341,5 +372,33 @@ describe("on the demo", () => {
       await expect(getComebackReport(db, { ...northgate, role })).rejects.toBeInstanceOf(
         ForbiddenError,
       );
+  });
+
+  test("comebacks name their faults and carry intervals at the organisation's confidence", async () => {
+    const r = await getComebackReport(db, tidewater);
+    expect(r.settings.confidence).toBe(0.95);
+    const w = wilsonInterval(r.comebacks, r.repairs, r.settings.confidence);
+    expect(r.overall.lower).toBeCloseTo(w.lower, 12);
+    expect(r.overall.upper).toBeCloseTo(w.upper, 12);
+    // Faults by name: "P0496 — …" for a DTC the catalogue describes, "System → Name" for a
+    // component; never a slug.
+    const described = new Map(
+      (
+        await db.all<{ code: string; description: string }>(
+          sql`select code, description from dtc_codes`,
+        )
+      ).map((d) => [d.code, d.description]),
+    );
+    const dtcFaults = r.byFault.filter((f) => f.key.startsWith("dtc:"));
+    expect(dtcFaults.some((f) => described.has(f.key.slice(4)))).toBe(true);
+    for (const f of r.byFault) {
+      const code = f.key.slice(4);
+      if (f.key.startsWith("dtc:"))
+        expect(f.label).toBe(described.has(code) ? `${code} — ${described.get(code)}` : code);
+      else expect(f.label).toMatch(/^[A-Z][^/]* → [A-Z][^/]*$/);
+    }
+    for (const p of r.pairs)
+      for (const name of p.faults)
+        expect(name).toMatch(/^[A-Z][0-9A-F]{4}( — .+)?$|^[A-Z][^/]* → [A-Z][^/]*$/);
   });
 });

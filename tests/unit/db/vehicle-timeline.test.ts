@@ -82,11 +82,16 @@ describe("getVehicleTimeline", () => {
   test("repair lines carry their order, codes and component", async () => {
     const withCodes = k2Timeline.repairLines.find((l) => l.dtcs.length > 0);
     expect(withCodes).toBeDefined();
-    const stored = await rows<{ dtc: string }>(
-      "select dtc from repair_line_codes where repair_line_id = ? order by id",
+    const stored = await rows<{ dtc: string; description: string | null }>(
+      `select c.dtc, d.description from repair_line_codes c left join dtc_codes d on d.code = c.dtc
+        where c.repair_line_id = ? order by c.id`,
       [withCodes!.id],
     );
     expect(withCodes!.dtcs).toEqual(stored.map((r) => r.dtc));
+    // The same codes by name, for the records table.
+    expect(withCodes!.dtcNames).toEqual(
+      stored.map((r) => (r.description ? `${r.dtc} — ${r.description}` : r.dtc)),
+    );
     const [order] = await rows<{ ro_number: string }>(
       "select o.ro_number from repair_orders o join repair_lines l on l.repair_order_id = o.id where l.id = ?",
       [withCodes!.id],
@@ -192,6 +197,24 @@ describe("patterns the vehicle matches", () => {
     expect(purge).toBeDefined();
     expect(purge?.dtcDescription).toMatch(/purge/i);
     expect(purge?.bandToMi).toBeGreaterThan(purge!.bandFromMi);
+  });
+
+  test("each pattern carries its kind and its cell's p- and q-value for the details", async () => {
+    for (const p of k2Timeline.patterns) {
+      expect(["failure", "wear"]).toContain(p.kind);
+      const [cell] = await rows<{ kind: string; p_value: number | null; q_value: number | null }>(
+        `select kind, p_value, q_value from cell_stats
+          where organisation_id = ? and make = ? and model = ? and cohort_label = ?
+            and band_index = ? and fault_key = ?`,
+        [scopes.tidewater!.organisationId, p.make, p.model, p.cohortLabel, p.bandIndex, p.faultKey],
+      );
+      expect(p.kind).toBe(cell?.kind);
+      expect(p.pValue).toBe(cell?.p_value);
+      expect(p.qValue).toBe(cell?.q_value);
+    }
+    const purge = k2Timeline.patterns.find((p) => p.faultKey === "dtc:P0496");
+    expect(purge?.kind).toBe("failure");
+    expect(purge?.pValue).toBeLessThan(0.05);
   });
 
   test("position and the vehicle's own history agree with its records", async () => {

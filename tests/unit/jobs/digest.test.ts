@@ -4,10 +4,11 @@ import type { Db } from "@/db";
 import { changeKnownIssueState, listKnownIssues } from "@/db/queries/known-issues";
 import { setDigestOptIn } from "@/db/queries/preferences";
 import { findOrganisationBySlug } from "@/db/queries/system";
+import { repairLines, repairOrders } from "@/db/schema";
 import { loadDemo } from "@/db/seed/demo";
 import { buildDigest, isoWeekKey, renderDigest, sendDigest } from "@/jobs/digest/digest";
 import { recomputeOrganisation } from "@/jobs/recompute/recompute";
-import { formatInterval } from "@/lib/format";
+import { describeOutlook } from "@/lib/plain-words";
 import { createTestDb } from "../../support/test-db";
 
 describe("isoWeekKey (ISO 8601 week numbering)", () => {
@@ -63,10 +64,31 @@ describe("the weekly digest on the demo", () => {
       expect(a.expectedUpper!).toBeGreaterThanOrEqual(a.expected);
     }
     const mail = renderDigest(digest);
+    // Each at-risk vehicle in words with its range; the level said once.
     const first = digest.atRisk[0]!;
     expect(mail.text).toContain(
-      `${formatInterval(first.expectedLower, first.expectedUpper)} at ${Math.round(digest.confidence * 100)}% confidence`,
+      `${first.vehicle}: ${first.why} — ${describeOutlook({
+        expected: first.expected,
+        lower: first.expectedLower,
+        upper: first.expectedUpper,
+        noun: ["failure"],
+      })}`,
     );
+    expect(mail.text).toContain(`at ${Math.round(digest.confidence * 100)}% confidence`);
+    // Signals name their fault from the catalogue, never by its slug; no ∞, no exponents.
+    const names = await db.all<{ key: string; name: string }>(sql`
+      select 'dtc:' || code as key, code || ' — ' || description as name from dtc_codes
+      union all
+      select 'component:' || slug, system || ' → ' || name from components`);
+    const nameOf = new Map(names.map((n) => [n.key, n.name]));
+    const keys = await db.all<{ fault_key: string }>(sql`
+      select fault_key from signals where organisation_id = ${tide} and kind = 'failure'`);
+    const expectedNames = new Set(keys.map((k) => nameOf.get(k.fault_key)));
+    for (const s of digest.newSignals) {
+      expect(expectedNames.has(s.fault)).toBe(true);
+      expect(s.label).toBe(`${s.cohort} · ${s.fault}`);
+    }
+    expect(mail.text).not.toMatch(/∞|\de-\d/);
     expect(mail.subject).toMatch(
       /^Recurra weekly digest: Tidewater Parcel Co-op — \d+ new signals?$/,
     );
@@ -74,6 +96,45 @@ describe("the weekly digest on the demo", () => {
       expect(part).toContain(digest.newSignals[0]!.label.split(" · ")[0]);
       expect(part).toContain("Seen five times.");
     }
+  });
+
+  test("top comebacks count failure lines only: scheduled service twice is not a comeback", async () => {
+    const [vehicle] = await db.all<{ id: number }>(
+      sql`select id from vehicles where organisation_id = ${tide} order by id limit 1`,
+    );
+    const [oil] = await db.all<{ id: number }>(
+      sql`select id from components where slug = 'engine-mechanical/oil-service'`,
+    );
+    const day = (ago: number) => new Date(Date.now() - ago * 86_400_000).toISOString().slice(0, 10);
+    for (const [n, ago] of [
+      [1, 5],
+      [2, 1],
+    ] as const) {
+      const [order] = await db
+        .insert(repairOrders)
+        .values({
+          organisationId: tide,
+          vehicleId: Number(vehicle!.id),
+          roNumber: `DIGEST-OIL-${n}`,
+          openedOn: day(ago),
+          odometerMi: 900_000 + n,
+        })
+        .returning();
+      await db.insert(repairLines).values({
+        organisationId: tide,
+        repairOrderId: order!.id,
+        vehicleId: Number(vehicle!.id),
+        openedOn: day(ago),
+        odometerMi: 900_000 + n,
+        componentId: Number(oil!.id),
+        kind: "service",
+        correction: "Oil and filter changed per schedule",
+      });
+    }
+    const digest = await buildDigest(db, tide, new Date(Date.now() - 7 * 86_400_000));
+    expect(digest.comebacks.map((c) => c.fault)).not.toContain(
+      "Engine mechanical → Oil and filter",
+    );
   });
 
   test("goes once a week to the members who opted in; --force sends again", async () => {

@@ -188,6 +188,33 @@ describe("analyseComebacks on hand-built timelines", () => {
     });
   });
 
+  test("intervals at the organisation's confidence; DTCs named with their descriptions", () => {
+    const lines = [
+      line(1, "2025-01-01", 1000, { dtcs: ["P0496"] }),
+      line(1, "2025-01-10", 1100, { dtcs: ["P0496"] }),
+      line(2, "2025-01-01", 1000, { dtcs: ["P0496"] }),
+      line(3, "2025-01-01", 1000, { component: PURGE }),
+    ];
+    const a = analyseComebacks(lines, WINDOW, null, {
+      confidence: 0.8,
+      dtcDescriptions: new Map([["P0496", "Purge flow while the valve should be shut"]]),
+    });
+    const w = wilsonInterval(1, 3, 0.8);
+    expect(a.overall).toMatchObject({ repairs: 4, comebacks: 1 });
+    const p0496 = a.byFault.find((r) => r.key === "dtc:P0496")!;
+    expect(p0496.label).toBe("P0496 — Purge flow while the valve should be shut");
+    expect(p0496.lower).toBeCloseTo(w.lower, 12);
+    expect(p0496.upper).toBeCloseTo(w.upper, 12);
+    // 80% is narrower than the default 95%.
+    const at95 = analyseComebacks(lines, WINDOW).byFault.find((r) => r.key === "dtc:P0496")!;
+    expect(at95.label).toBe("P0496");
+    expect(p0496.upper! - p0496.lower!).toBeLessThan(at95.upper! - at95.lower!);
+    expect(a.pairs[0]!.faults).toEqual(["P0496 — Purge flow while the valve should be shut"]);
+    expect(a.byFault.find((r) => r.key === "component:fuel-vapour/purge-valve")!.label).toBe(
+      "Fuel vapour → Purge valve",
+    );
+  });
+
   test("repairs whose window is still open are left out of the rates and counted", () => {
     const a = analyseComebacks(
       [

@@ -1,6 +1,9 @@
 import { describe, expect, test } from "vitest";
 import {
+  cellFigureRows,
+  describeAgainstChance,
   describeExpected,
+  describeOutlook,
   describeRate,
   describeRatio,
   describeShare,
@@ -108,5 +111,77 @@ describe("plain words for figures", () => {
       "Power distribution → Body ground",
     );
     expect(faultName({ faultKey: "all" })).toBe("All failures");
+  });
+
+  test("an outlook below one keeps its range, as chances (1 − e^−λ, bound to bound)", () => {
+    // 1 − e^−0.48 = 0.3812, 1 − e^−0.2 = 0.1813, 1 − e^−0.7 = 0.5034 (computed)
+    expect(describeOutlook({ expected: 0.48, lower: 0.2, upper: 0.7, noun: ["failure"] })).toBe(
+      "about a 38% chance of a failure, likely between 18% and 50%",
+    );
+    // From one up, and without a range, it reads as describeExpected.
+    expect(describeOutlook({ expected: 3.2, lower: 1.1, upper: 6.4, noun: ["failure"] })).toBe(
+      "about 3.2 failures (likely 1.1 to 6.4)",
+    );
+    expect(describeOutlook({ expected: 0.48, lower: null, upper: null, noun: ["failure"] })).toBe(
+      "about a 38% chance of a failure",
+    );
+    expect(describeOutlook({ expected: 0, lower: 0, upper: 0, noun: ["failure"] })).toBe(
+      "no failures expected",
+    );
+    // "an" where the percentage is read with a vowel: 1 − e^−0.08 = 0.0769, 1 − e^−0.12 = 0.113.
+    expect(describeOutlook({ expected: 0.08, lower: null, upper: null, noun: ["failure"] })).toBe(
+      "about an 8% chance of a failure",
+    );
+    expect(describeOutlook({ expected: 0.12, lower: null, upper: null, noun: ["issue"] })).toBe(
+      "about an 11% chance of an issue",
+    );
+    // The small end: under 0.1% is said so, never "a under 0.1%" (1 − e^−0.02 = 0.0198).
+    expect(describeOutlook({ expected: 0.0004, lower: 0, upper: 0.02, noun: ["failure"] })).toBe(
+      "under a 0.1% chance of a failure, likely under 2%",
+    );
+    expect(
+      describeOutlook({ expected: 0.02, lower: 0.00001, upper: 0.05, noun: ["failure"] }),
+    ).toBe("about a 2% chance of a failure, likely under 5%");
+  });
+
+  test("events against chance read as times what chance predicts, never as a bare ratio", () => {
+    expect(describeAgainstChance({ observed: 48, expected: 3.2, lower: 11, upper: 20 })).toBe(
+      "about 15 times what chance predicts, at least 11 times",
+    );
+    expect(describeAgainstChance({ observed: 4, expected: 3, lower: 0.36, upper: 3.4 })).toBe(
+      "about 1.3 times what chance predicts; could be chance (likely between 0.36 and 3.4 times)",
+    );
+    expect(describeAgainstChance({ observed: 3, expected: 3.1, lower: 0.2, upper: null })).toBe(
+      "about what chance predicts; could be chance (likely between 0.2 and many times)",
+    );
+    expect(describeAgainstChance({ observed: 0, expected: 2.1, lower: 0, upper: 1.4 })).toBe(
+      "none, against about 2.1 by chance",
+    );
+    expect(describeAgainstChance({ observed: 0, expected: 0, lower: 0, upper: null })).toBe(
+      "nothing measured to set against chance",
+    );
+  });
+
+  test("a cell's details hold the exact figures in the organisation's unit, p, q and the method", () => {
+    const cell = {
+      ratePer10kMi: 1.609344,
+      rateLower: 0.8,
+      rateUpper: 3.2,
+      ratio: null,
+      ratioLower: 27.84,
+      ratioUpper: Infinity,
+      pValue: 2.7e-38,
+      qValue: 7.6e-7,
+    };
+    const rows = Object.fromEntries(cellFigureRows(cell, 0.9, "km"));
+    // 1.609344 per 10,000 mi = 1 per 10,000 km (NIST SP 811 Appendix B: 1 mi = 1.609344 km).
+    expect(rows["Rate per 10,000 km"]).toBe("1 (90% interval: 0.5 to 2)");
+    expect(rows["Rate ratio, against the rest of the fleet"]).toBe(
+      "not finite: no repairs of this in the rest of the fleet (90% interval: 28 to no upper limit)",
+    );
+    expect(rows["p (exact test of the ratio)"]).toBe("below 0.0001");
+    expect(rows["q (false-discovery rate)"]).toBe("below 0.0001");
+    expect(rows.Method).toMatch(/Garwood.*Benjamini–Hochberg/);
+    expect(JSON.stringify(rows)).not.toMatch(/e-\d|∞/);
   });
 });

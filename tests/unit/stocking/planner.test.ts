@@ -1,5 +1,5 @@
 import { describe, expect, test } from "vitest";
-import { planStock, withAbcClasses, type PlannerInput } from "@/lib/stocking";
+import { demandKinds, planStock, withAbcClasses, type PlannerInput } from "@/lib/stocking";
 import { jStat } from "../stats/support";
 
 const COHORT = "Aurel|Kestrel|K2";
@@ -164,5 +164,41 @@ describe("withAbcClasses (common practice: 80% / 95% of the yearly value)", () =
       { id: "e", annualValueCents: null },
     ]);
     expect(rows.map((r) => `${r.id}${r.abc}`)).toEqual(["aA", "bA", "cB", "dC", "eC"]);
+  });
+});
+
+describe("demandKinds: which kind of work a part's demand comes from", () => {
+  test("the kinds with demand, largest first; none without demand", () => {
+    expect(demandKinds({ service: 0.4, wear: 0, failure: 1.2 })).toEqual(["failure", "service"]);
+    expect(demandKinds({ service: 0, wear: 2, failure: 0 })).toEqual(["wear"]);
+    expect(demandKinds({ service: 0, wear: 0, failure: 0 })).toEqual([]);
+    // Ties keep the order service, wear, failure.
+    expect(demandKinds({ service: 1, wear: 1, failure: 1 })).toEqual([
+      "service",
+      "wear",
+      "failure",
+    ]);
+  });
+
+  test("a planned part's kinds come from the kind of the rates behind its demand", () => {
+    const plan = planStock({
+      vehicles: [{ id: 1, cohortKey: "A|B|1", odometerMi: 10, milesPerDay: 100 }],
+      rates: new Map([
+        ["A|B|1|0|component:brakes/pads", { kind: "wear", perMile: 1e-4, upperPerMile: 2e-4 }],
+        ["A|B|1|0|service:brakes/pads", { kind: "service", perMile: 3e-4, upperPerMile: 4e-4 }],
+      ]),
+      componentsByCohort: new Map([["A|B|1", ["component:brakes/pads", "service:brakes/pads"]]]),
+      partUse: new Map([["*|brakes/pads", [{ partNumber: "PAD-1", perRepair: 1 }]]]),
+      parts: [],
+      bandWidthMi: 25_000,
+      serviceLevel: 0.95,
+      reviewDays: 14,
+      defaultLeadDays: 7,
+      cautious: false,
+      confidence: 0.9,
+    });
+    const [pad] = plan;
+    expect(pad?.partNumber).toBe("PAD-1");
+    expect(demandKinds(pad!.demandByKind)).toEqual(["service", "wear"]);
   });
 });

@@ -9,6 +9,7 @@ import { patternBands, TimelinePatterns } from "@/components/vehicles/timeline-p
 import { TimelineTable } from "@/components/vehicles/timeline-table";
 import { getDb } from "@/db";
 import { getVehicleTimeline } from "@/db/queries/vehicle-timeline";
+import { formatConfidence, intervalLabel } from "@/lib/plain-words";
 import { formatDistance } from "@/lib/units";
 import { loadVehicle } from "./load-vehicle";
 import { buildTimelineRecords, formatCents } from "./timeline-records";
@@ -110,16 +111,17 @@ export default async function VehiclePage({ params }: { params: Promise<{ id: st
           </p>
         ) : patterns.length === 0 ? (
           <p className="text-sm text-ink-soft">
-            No cohort × mileage band × fault cell of the {cohort} cohort is a signal or ranks high
+            Nothing on the {cohort} cohort stands out from the rest of the fleet in any mileage band
             in the latest analysis.
           </p>
         ) : (
           <>
             <p className="mb-3 text-sm text-ink-soft">
-              Cells of the {cohort} cohort that are signals or whose rate ratio is above 1 even at
-              its lower confidence limit, from the analysis of{" "}
-              {analysis.finishedAt?.slice(0, 10) ?? "today"}. Rates count repair lines per 10,000{" "}
-              {unit} of exposure.
+              Failures and wear on the {cohort} cohort that stand out from the rest of the fleet in
+              a mileage band: signals, and those above the rest of the fleet even at the low end of
+              their {intervalLabel(analysis.confidenceLevel)}. From the analysis of{" "}
+              {analysis.finishedAt?.slice(0, 10) ?? "today"}; &ldquo;likely&rdquo; and &ldquo;at
+              least&rdquo; at {formatConfidence(analysis.confidenceLevel)} confidence.
             </p>
             <TimelinePatterns
               patterns={patterns}

@@ -70,7 +70,7 @@ function describeLine(line: TimelineRepairLine, isOnlyLine: boolean): string[] {
     joinParts([
       isOnlyLine ? null : `Line ${line.lineNo}`,
       component,
-      line.dtcs.join(" "),
+      line.dtcNames.join("; "),
       line.symptom,
       line.isWarranty && "warranty",
     ]),
