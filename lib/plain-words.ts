@@ -146,10 +146,15 @@ export function describeExpected(f: {
   const [singular, plural] = f.noun;
   const e = f.expected;
   if (!Number.isFinite(e) || e <= 0) return `no ${plural ?? `${singular}s`} expected`;
+  const what = `${/^[aeiou]/i.test(singular) ? "an" : "a"} ${singular}`;
+  const chance = 1 - Math.exp(-e);
+  const pct = formatPercent(chance);
   const head =
-    e < 1
-      ? `about a ${formatPercent(1 - Math.exp(-e))} chance of ${/^[aeiou]/i.test(singular) ? "an" : "a"} ${singular}`
-      : `about ${formatPlain(e)} ${e < 1.5 ? singular : (plural ?? `${singular}s`)}`;
+    e >= 1
+      ? `about ${formatPlain(e)} ${e < 1.5 ? singular : (plural ?? `${singular}s`)}`
+      : chance < 0.001
+        ? `under a 0.1% chance of ${what}`
+        : `about ${articleFor(pct)} ${pct} chance of ${what}`;
   if (f.lower === null || f.lower === undefined || f.upper === null || f.upper === undefined)
     return head;
   return `${head} (likely ${formatPlain(f.lower)} to ${formatPlain(f.upper)})`;

@@ -87,6 +87,13 @@ describe("plain words for figures", () => {
       "about 3.2 failures (likely 1.1 to 6.4)",
     );
     expect(describeExpected({ expected: 0, noun: ["failure"] })).toBe("no failures expected");
+    // 1 − e^−0.083 = 0.0796 (computed): "an 8%", not "a 8%"
+    expect(describeExpected({ expected: 0.083, noun: ["failure"] })).toBe(
+      "about an 8% chance of a failure",
+    );
+    expect(describeExpected({ expected: 0.0004, noun: ["failure"] })).toBe(
+      "under a 0.1% chance of a failure",
+    );
   });
 
   test("percentages, probabilities and confidence levels as people write them", () => {
