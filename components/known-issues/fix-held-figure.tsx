@@ -9,7 +9,9 @@ export function FixHeldFigure({ fixHeld, unit }: { fixHeld: FixHeld | null; unit
   return (
     <div data-testid="fix-success">
       <p>{describeFixHeld(fixHeld, unit)}</p>
-      {fixHeld ? <FigureDetails rows={fixHeldDetails(fixHeld, unit)} /> : null}
+      {fixHeld ? (
+        <FigureDetails rows={fixHeldDetails(fixHeld, unit)} className="print:hidden" />
+      ) : null}
     </div>
   );
 }

@@ -84,7 +84,7 @@ export function CauseBlock({
         )}
       </div>
       {c.cell ? (
-        <p className="text-sm text-ink-soft" data-testid="cause-cell">
+        <p className="text-sm text-ink-soft print:hidden" data-testid="cause-cell">
           {c.kind === "cell" ? "This pattern" : "Its pattern"} in this band:{" "}
           {c.cell.hasTooLittleData
             ? describeTooLittle(c.cell, unit)

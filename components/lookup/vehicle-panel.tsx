@@ -166,7 +166,7 @@ export function VehiclePanel({
               : "None given (or not recognised in the words)."}
           </p>
           {result?.found && result.codeCells.length > 0 ? (
-            <ul className="text-xs text-ink-soft" data-testid="code-cells">
+            <ul className="text-xs text-ink-soft print:hidden" data-testid="code-cells">
               {result.codeCells.map((c) => (
                 <li key={c.faultKey}>
                   {c.faultName}, on this cohort in this band:{" "}

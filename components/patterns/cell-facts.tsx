@@ -20,7 +20,7 @@ export function CellFacts({
       <p className="mt-1" data-testid="tooltip-sentence">
         {sentence(m.describe(cell, ctx))}.
       </p>
-      <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-2">
+      <dl className="mt-1 grid grid-cols-[minmax(0,8rem)_1fr] gap-x-2">
         <dt>{m.label(ctx.unit)}</dt>
         <dd data-testid="tooltip-value">{m.format(m.value(cell, ctx.unit), interval)}</dd>
         <dt>{intervalLabel(ctx.confidence)}</dt>

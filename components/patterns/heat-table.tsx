@@ -14,7 +14,8 @@ function describeHeatCell(
   ctx: MetricContext,
 ): string {
   if (!c) return `${rowLabel}, ${band}: no vehicles observed in this band.`;
-  if (c.hasTooLittleData) return `${rowLabel}, ${band}: ${describeTooLittle(c, ctx.unit)}`;
+  if (c.hasTooLittleData)
+    return `${rowLabel}, ${band}: too little data; ${describeTooLittle(c, ctx.unit).replace(/^Too little data to judge: /, "")}`;
   return `${rowLabel}, ${band}: ${m.describe(c, ctx)}${c.isSignal ? "; a signal" : ""}.`;
 }
 

@@ -162,7 +162,7 @@ export function Heatmap({
             const b = bands.find((x) => bandLabel(x) === d.x);
             return (
               <div
-                className="max-w-xs rounded-md border border-line bg-panel px-3 py-2 text-xs shadow"
+                className="w-80 rounded-md border border-line bg-panel px-3 py-2 text-xs shadow"
                 role="tooltip"
               >
                 <p className="font-semibold">{d.rowLabel}</p>

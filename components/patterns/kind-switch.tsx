@@ -26,12 +26,12 @@ export function KindSwitch({
         return (
           <label
             key={c.label}
-            className={`cursor-pointer rounded-full border px-3 py-1 has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-sea-700 ${isOn ? "border-sea-700 bg-sea-700 text-white" : "border-line-strong bg-panel text-ink hover:bg-sea-50"}`}
+            className={`cursor-pointer rounded-full border px-3 py-1 ${isOn ? "border-sea-700 bg-sea-700 text-white" : "border-line-strong bg-panel text-ink hover:bg-sea-50"}`}
           >
             <input
               type="radio"
               name="kind"
-              className="sr-only"
+              className="mr-1.5 accent-sea-700 align-middle"
               checked={isOn}
               onChange={() => setParams({ kind: c.kind, fault: undefined })}
             />
