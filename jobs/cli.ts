@@ -35,7 +35,11 @@ import { inspectStoredImport, receiveUpload } from "@/jobs/import/upload";
 import { startWorker } from "@/jobs/worker";
 import { loadReferenceData } from "@/db/seed/reference";
 import { DEMO_ORG_SLUGS, loadDemo } from "@/db/seed/demo";
-import { listRankedCells, type RankedCell } from "@/db/queries/cells";
+import { getLatestRun, listRankedCells, type RankedCell } from "@/db/queries/cells";
+import { cellOfRanked } from "@/lib/cell-types";
+import { formatBand } from "@/lib/format";
+import { describeCell, describeTooLittle, sentence, type MetricContext } from "@/lib/metrics";
+import { formatProbability, intervalLabel } from "@/lib/plain-words";
 import { listComponentKinds, setComponentKind } from "@/db/queries/component-kinds";
 import { ANALYSED_KINDS, COMPONENT_KINDS, type AnalysedKind } from "@/lib/component-kinds";
 import { getRefuelAnalysis } from "@/db/queries/refuel";
@@ -320,13 +324,33 @@ export function buildProgram(): Command {
       }),
     );
 
-  const printCells = (cells: RankedCell[]) =>
-    cells
-      .map(
-        (c) =>
-          `${c.signal ? "SIGNAL " : "       "}${`${c.make} ${c.model} ${c.generation}`.padEnd(26)} ${`${Math.round(c.bandFrom / 1000)}k–${Math.round(c.bandTo / 1000)}k mi`.padEnd(14)} ${(c.dtc ?? c.component ?? "").padEnd(34)} ${String(c.events).padStart(5)} ev  ${(c.rate ?? 0).toFixed(2).padStart(6)}/10k mi  ratio ${c.ratio === null ? (c.events > 0 ? "∞" : "—") : c.ratio.toFixed(2)} (${(c.ratioLower ?? 0).toFixed(2)}–${c.ratioUpper === null ? "∞" : c.ratioUpper.toFixed(2)})  q ${(c.qValue ?? 1).toPrecision(2)}`,
-      )
-      .join("\n") || "No cells: run recompute first, or nothing matches.";
+  /**
+   * Ranked cells as text, each figure from the metric registry: in the organisation's unit, at
+   * its run's confidence, in words (no ∞, no exponents).
+   */
+  const printCells = (cells: RankedCell[], ctx: MetricContext) =>
+    cells.length === 0
+      ? "No cells: run recompute first, or nothing matches."
+      : [
+          `"Likely" ranges are ${intervalLabel(ctx.confidence)}s.`,
+          ...cells.map((c) => {
+            const figures = cellOfRanked(c);
+            const place = `${c.make} ${c.model} ${c.generation} · ${formatBand(c.bandFrom, c.bandTo, ctx.unit)} · ${c.faultName}${c.kind === "wear" ? " (wear)" : ""}`;
+            const words = c.hasTooLittleData
+              ? describeTooLittle(figures, ctx.unit)
+              : `${sentence(describeCell(figures, ctx))} q ${formatProbability(c.qValue)}.`;
+            return `${c.signal ? "SIGNAL " : "       "}${place}\n        ${words}`;
+          }),
+        ].join("\n");
+  /** The organisation's unit and the confidence of its latest run. */
+  const metricContext = async (
+    db: Awaited<ReturnType<typeof operatorScope>>["db"],
+    org: { distanceUnit: "mi" | "km" },
+    scope: Awaited<ReturnType<typeof operatorScope>>["scope"],
+  ): Promise<MetricContext> => ({
+    unit: org.distanceUnit,
+    confidence: (await getLatestRun(db, scope))?.confidenceLevel ?? 0.95,
+  });
 
   const kindOption = () =>
     new Option("--kind <kind>", "failure cells, or wear cells (premature wear)")
@@ -342,13 +366,13 @@ export function buildProgram(): Command {
     .addOption(kindOption())
     .action(
       action(async (opts: { org: string; fault?: string; limit: number; kind: AnalysedKind }) => {
-        const { db, scope } = await operatorScope(opts.org);
+        const { db, org, scope } = await operatorScope(opts.org);
         const { cells } = await listRankedCells(db, scope, {
           fault: opts.fault,
           kind: opts.kind,
           limit: opts.limit,
         });
-        return { data: cells, text: printCells(cells) };
+        return { data: cells, text: printCells(cells, await metricContext(db, org, scope)) };
       }),
     );
 
@@ -359,13 +383,13 @@ export function buildProgram(): Command {
     .addOption(kindOption())
     .action(
       action(async (opts: { org: string; kind: AnalysedKind }) => {
-        const { db, scope } = await operatorScope(opts.org);
+        const { db, org, scope } = await operatorScope(opts.org);
         const { cells } = await listRankedCells(db, scope, {
           isSignalOnly: true,
           kind: opts.kind,
           limit: 10_000,
         });
-        return { data: cells, text: printCells(cells) };
+        return { data: cells, text: printCells(cells, await metricContext(db, org, scope)) };
       }),
     );
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { ANALYSED_KINDS } from "./component-kinds";
 
 /** An empty form field ("from=") means the filter is not set. */
 const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
@@ -20,6 +21,8 @@ const ViewFields = {
 };
 /** The filters every explorer endpoint shares: cohort, fault, bands, and a period or vendor. */
 const CellFilterFields = {
+  /** Failure cells (the default) or wear cells. */
+  kind: z.preprocess(blankToUndefined, z.enum(ANALYSED_KINDS).optional()),
   fault: z.string().trim().max(80).optional(),
   make: z.string().trim().max(60).optional(),
   model: z.string().trim().max(60).optional(),

@@ -1,4 +1,5 @@
 import { findComebacks, type ComebackWindow, type RepairVisit } from "@/lib/comebacks";
+import { fixHeld, isWindowOpen, type FixFault, type FixLine } from "@/lib/fix-held";
 import { faultName } from "@/lib/plain-words";
 import { wilsonInterval } from "@/lib/stats";
 
@@ -107,6 +108,13 @@ export function correctionAction(correction: string | null): string {
   return best?.action ?? (text.trim() ? "other" : "not recorded");
 }
 
+/** The fault of a key, as lib/fix-held.ts reads it. */
+export function faultOfKey(key: string): FixFault {
+  return key.startsWith("dtc:")
+    ? { component: null, dtcs: [key.slice(4)] }
+    : { component: key.slice("component:".length), dtcs: [] };
+}
+
 const componentLabel = (c: NonNullable<ComebackLine["component"]>) => `${c.system} → ${c.name}`;
 
 /** The faults of a line: "dtc:P0496", "component:fuel-vapour/purge-valve". */
@@ -126,7 +134,6 @@ export function jobTypeOf(line: ComebackLine): string {
   return line.component?.system ?? "Codes only (no component)";
 }
 
-const DAY_MS = 86_400_000;
 const SEP = "\u0000";
 
 function rateOf(
@@ -197,9 +204,7 @@ export function analyseComebacks(
     }
   }
 
-  const openFrom =
-    asOf === null ? null : new Date(Date.parse(asOf) - window.days * DAY_MS).toISOString();
-  const isOpen = (l: ComebackLine) => openFrom !== null && l.openedOn > openFrom.slice(0, 10);
+  const isOpen = (l: ComebackLine) => isWindowOpen(l.openedOn, asOf, window.days);
   const counted = withFault.filter((l) => !isOpen(l));
   const stillOpen = withFault.length - counted.length;
   const outcome = (l: ComebackLine) =>
@@ -216,16 +221,22 @@ export function analyseComebacks(
     }
     return [...out].map(([key, t]) => rateOf(key, t.label, t.repairs, t.comebacks, confidence));
   };
-  // Per fault the outcome is that fault's own: did this fault come back?
-  const byFault = [...linesOfFault].map(([fault, list]) => {
-    const visits = new Map<string, boolean>();
-    for (const l of list) {
-      if (isOpen(l)) continue;
-      const visit = `${l.vehicleId}|${l.openedOn}`;
-      visits.set(visit, cameBack.has(`${visit}|${fault}`));
-    }
-    const back = [...visits.values()].filter(Boolean).length;
-    return rateOf(fault, faultLabel.get(fault)!, visits.size, back, confidence);
+  // Per fault: how often its fix held (lib/fix-held.ts, the one definition the known issue,
+  // the lookup and the digest show); the share that came back is its comebacks ÷ repairs.
+  const fixLines: FixLine[] = withFault.map((l) => ({
+    id: l.id,
+    vehicleId: l.vehicleId,
+    openedOn: l.openedOn,
+    odometerMi: l.odometerMi,
+    kind: "failure",
+    componentSlug: l.component?.slug ?? null,
+    codes: l.dtcs.map((d) => d.toUpperCase()),
+  }));
+  const byFault = [...linesOfFault.keys()].flatMap((fault) => {
+    const held = fixHeld(fixLines, faultOfKey(fault), { window, confidence, asOf });
+    return held
+      ? [rateOf(fault, faultLabel.get(fault)!, held.fixes, held.comebacks, confidence)]
+      : [];
   });
   const orNot = (s: string | null, none: string) => (s && s.trim() ? s.trim() : none);
   const comebacks = counted.filter(outcome).length;

@@ -4,23 +4,26 @@
  */
 import { z } from "zod";
 import { SYMPTOMS, type Symptom } from "@/db/schema/records";
-import { findComebacks, type ComebackWindow, type RepairVisit } from "@/lib/comebacks";
 import { parseDtc, type DtcInfo } from "@/lib/dtc";
 import { parseFormNumber } from "@/lib/form-number";
 import { parseSymptom, symptomFromText } from "@/lib/import/symptoms";
+import { intervalLabel } from "@/lib/plain-words";
 import { wilsonInterval } from "@/lib/stats";
 
 /** Fewer matching repair lines than this in the vehicle's band: widen to the whole cohort. */
 export const MIN_LINES_IN_BAND = 10;
 
 /** The ranking rule as the page states it (keep in step with compareCauses). */
-export const RANKING_RULE =
-  "Ranked by the lower bound of the 95% Wilson interval (Wilson 1927) of how often each was the cause, " +
-  "so that 1 of 1 does not outrank 9 of 12; ties by the share itself, then by the count behind it. " +
-  "The share counts the organisation's repair lines of this cohort in this mileage band that carry " +
-  "the entered codes or symptom, and how many of them were fixed at this fault, plus the findings " +
-  "technicians recorded (this was the cause = yes, not the cause = no). With fewer than " +
-  `${MIN_LINES_IN_BAND} such lines in the band, the whole cohort is counted instead.`;
+export function rankingRule(confidence: number): string {
+  return (
+    `Ranked by the lower end of the ${intervalLabel(confidence)} of how often each was the cause ` +
+    "(Wilson score interval, Wilson 1927), so that 1 of 1 does not outrank 9 of 12; ties by the share " +
+    "itself, then by the count behind it. The share counts the organisation's repair lines of this " +
+    "cohort in this mileage band that carry the entered codes or symptom, and how many of them were " +
+    "fixed at this fault, plus the findings technicians recorded (this was the cause = yes, not the " +
+    `cause = no). With fewer than ${MIN_LINES_IN_BAND} such lines in the band, the whole cohort is counted instead.`
+  );
+}
 
 const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
 const optionalText = (max: number, label: string) =>
@@ -198,53 +201,6 @@ export function causeShare(
   };
 }
 
-export type FixSuccess = {
-  held: number;
-  fixes: number;
-  comebacks: number;
-  estimate: number;
-  lower: number;
-  upper: number;
-};
-
-/**
- * How often the fix held: the visits (one per vehicle and day) whose line fixed this fault, and
- * among them those not followed by a comeback, i.e. the same vehicle back for the same fault
- * (its component or its DTCs, or the entered codes) within the window (lib/comebacks.ts).
- * Success = 1 − comeback rate, with the Wilson interval of the held share. Null with no fixes.
- */
-export function fixSuccess(
-  cohortLines: LookupLine[],
-  fault: Fault,
-  window: ComebackWindow,
-  alsoSameFault: string[] = [],
-  confidence = 0.95,
-): FixSuccess | null {
-  const codes = new Set([...fault.dtcs, ...alsoSameFault]);
-  const ofFault = cohortLines.filter(
-    (l) =>
-      (fault.component !== null && l.componentSlug === fault.component) ||
-      l.codes.some((c) => codes.has(c)),
-  );
-  const visits: RepairVisit[] = ofFault.map((l) => ({
-    id: l.id,
-    vehicleId: l.vehicleId,
-    openedOn: l.openedOn,
-    odometerMi: l.odometerMi,
-  }));
-  const cameBack = new Set(
-    findComebacks(visits, window).map((c) => `${c.first.vehicleId}|${c.first.openedOn}`),
-  );
-  const fixVisits = new Set(
-    ofFault.filter((l) => isFixOf(l, fault)).map((l) => `${l.vehicleId}|${l.openedOn}`),
-  );
-  const fixes = fixVisits.size;
-  if (fixes === 0) return null;
-  const comebacks = [...fixVisits].filter((k) => cameBack.has(k)).length;
-  const held = fixes - comebacks;
-  return { held, fixes, comebacks, ...wilsonInterval(held, fixes, confidence) };
-}
-
 /** The fix as the records write it, for a pattern cell with no known issue behind it. */
 export function describeRecordedFix(fixLines: LookupLine[]): {
   typicalHours: number | null;
@@ -309,7 +265,7 @@ export function absorbCells<C extends { fault: Fault }>(issues: { fault: Fault }
   );
 }
 
-/** Order of RANKING_RULE: lower bound, then share, then trials, known issues before cells, title. */
+/** Order of rankingRule: lower bound, then share, then trials, known issues before cells, title. */
 export function compareCauses(a: Candidate, b: Candidate): number {
   const lo = (c: Candidate) => c.share.lower ?? -1;
   const est = (c: Candidate) => c.share.estimate ?? -1;

@@ -312,3 +312,43 @@ export function faultName(f: {
   const words = (s: string) => s.replaceAll("-", " ").replace(/^./, (c) => c.toUpperCase());
   return part ? `${words(system ?? "")} → ${words(part)}` : slug ? words(slug) : "Unknown fault";
 }
+
+/**
+ * A wear cell's rate ratio in words: wear is a pattern only when it comes early, so it reads as
+ * wearing out sooner (or later) than on the rest of the fleet in the same band:
+ * - "wears out sooner than on the rest of the fleet: about 2.1 times as often, at least 1.4 times";
+ * - "wears out later than on the rest of the fleet: about half as often, at most 0.8 times";
+ * - "may wear out sooner than on the rest of the fleet: about 1.2 times as often, but it could be
+ *   chance (likely between 0.8 and 1.9 times)" when the interval reaches across 1;
+ * - "no wear repairs of this in the rest of the fleet in this band" (+ ", at least 28 times its
+ *   rate") instead of an infinite ratio.
+ */
+export function describeWearRatio(f: {
+  ratio: number | null;
+  lower: number | null;
+  upper: number | null;
+  events: number;
+}): string {
+  const rest = "the rest of the fleet";
+  if (f.ratio === null || !Number.isFinite(f.ratio)) {
+    if (f.events === 0) return `no wear repairs here, and none in ${rest} in this band`;
+    const atLeast =
+      f.lower !== null && Number.isFinite(f.lower) && f.lower > 1
+        ? `, at least ${formatPlain(f.lower)} times its rate`
+        : "";
+    return `no wear repairs of this in ${rest} in this band${atLeast}`;
+  }
+  if (f.events === 0) return `no wear repairs here against some in ${rest}`;
+  const times = timesWords(f.ratio).replace(/ of$/, "");
+  const often = times === "about the same as" ? "about as often" : `${times} as often`;
+  if (f.lower !== null && f.lower > 1)
+    return `wears out sooner than on ${rest}: ${often}, at least ${formatPlain(f.lower)} times`;
+  if (f.upper !== null && Number.isFinite(f.upper) && f.upper < 1)
+    return `wears out later than on ${rest}: ${often}, at most ${formatPlain(f.upper)} times`;
+  const range = `likely between ${formatPlain(f.lower ?? 0)} and ${
+    f.upper === null || !Number.isFinite(f.upper) ? "many" : formatPlain(f.upper)
+  } times`;
+  if (times === "about the same as") return `wears out about as often as on ${rest} (${range})`;
+  const way = f.ratio > 1 ? "sooner" : "later";
+  return `may wear out ${way} than on ${rest}: ${often}, but it could be chance (${range})`;
+}

@@ -1,36 +1,45 @@
-import type { HeatCell } from "@/db/queries/patterns";
-import { formatInterval, formatSig, ratePerTenThousand } from "@/lib/format";
+import { FigureDetails } from "@/components/ui/figure-details";
+import type { CellFigures } from "@/lib/cell-types";
+import {
+  cellDetails,
+  describeTooLittle,
+  metricFor,
+  RATIO,
+  sentence,
+  SHARE,
+  SHRUNK,
+  type MetricContext,
+} from "@/lib/metrics";
+import { formatPlain } from "@/lib/plain-words";
 import { milesToUnit } from "@/lib/units";
 
-/** A cell's figures, each with its denominator and interval. */
-export function CellFactsPanel({ cell: c, unit }: { cell: HeatCell; unit: "mi" | "km" }) {
+/**
+ * A cell's figures, each first in words with its denominator and likely range; the methods,
+ * exact intervals, p and q one click away.
+ */
+export function CellFactsPanel({ cell: c, ctx }: { cell: CellFigures; ctx: MetricContext }) {
+  const metrics = [metricFor("rate", c.kind), RATIO, SHARE, SHRUNK];
   const rows: [string, string][] = [
-    ["Repairs", `${c.events}`],
-    ["Exposure", `${formatSig(milesToUnit(c.exposureMi, unit), 4)} ${unit} driven in the band`],
+    [c.kind === "wear" ? "Wear repairs" : "Repairs", `${c.events}`],
     [
-      `Rate per 10,000 ${unit}`,
-      `${formatSig(ratePerTenThousand(c.rate, unit))} (${formatInterval(ratePerTenThousand(c.rateLower, unit), ratePerTenThousand(c.rateUpper, unit))})`,
+      "Distance driven",
+      `${formatPlain(milesToUnit(c.exposureMi, ctx.unit))} ${ctx.unit} in the band`,
     ],
-    [
-      "Vehicles affected",
-      `${c.vehiclesAffected} of ${c.vehicles} (${formatSig((c.share ?? 0) * 100)}%, ${formatSig((c.shareLower ?? 0) * 100)}–${formatSig((c.shareUpper ?? 0) * 100)}%)`,
-    ],
-    [
-      "Rate ratio vs rest of fleet",
-      c.ratio === null && c.events > 0
-        ? `no repairs elsewhere (lower limit ${formatSig(c.ratioLower)})`
-        : `${formatSig(c.ratio)} (${formatInterval(c.ratioLower, c.ratioUpper)})`,
-    ],
-    ["q (false discovery rate)", c.qValue === null ? "not tested" : formatSig(c.qValue, 2)],
+    ...(c.hasTooLittleData
+      ? [["In words", describeTooLittle(c, ctx.unit)] as [string, string]]
+      : metrics.map((m): [string, string] => [m.label(ctx.unit), sentence(m.describe(c, ctx))])),
   ];
   return (
-    <dl className="mt-4 grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
-      {rows.map(([k, v]) => (
-        <div key={k} className="contents">
-          <dt className="text-ink-soft">{k}</dt>
-          <dd className="tabular-nums">{v}</dd>
-        </div>
-      ))}
-    </dl>
+    <>
+      <dl className="mt-4 grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+        {rows.map(([k, v]) => (
+          <div key={k} className="contents">
+            <dt className="text-ink-soft">{k}</dt>
+            <dd>{v}</dd>
+          </div>
+        ))}
+      </dl>
+      <FigureDetails rows={cellDetails(c, ctx, metrics)} className="mt-3" />
+    </>
   );
 }

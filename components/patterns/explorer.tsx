@@ -4,11 +4,19 @@ import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { Skeleton } from "@/components/ui/skeleton";
 import type { HeatRow } from "@/db/queries/patterns";
-import type { HeatMetric } from "@/lib/heat-colour";
+import {
+  CHOOSABLE_METRICS,
+  metricFor,
+  type ChoosableMetric,
+  type DistanceUnit,
+  type MetricContext,
+} from "@/lib/metrics";
+import { intervalLabel } from "@/lib/plain-words";
 import { fetchJson } from "@/components/ui/fetch-json";
 import { RankedTable, type RankedRow } from "./ranked-table";
 import { Filters, type PatternOptions } from "./filters";
-import { Heatmap, METRIC_LABELS } from "./heatmap";
+import { Heatmap } from "./heatmap";
+import { KindSwitch } from "./kind-switch";
 import { useExplorerParams } from "./params";
 import {
   apiQuery,
@@ -20,17 +28,26 @@ import {
   type ExplorerParams,
 } from "./query-strings";
 
-type HeatmapData = { rows: HeatRow[]; bands: { band: number; from: number; to: number }[] };
-type CellsData = { total: number; cells: RankedRow[] };
+/** The run the figures come from: its confidence names the intervals. */
+type Run = { confidenceLevel: number } | null;
+type HeatmapData = {
+  rows: HeatRow[];
+  bands: { band: number; from: number; to: number }[];
+  run?: Run;
+};
+type CellsData = { total: number; cells: RankedRow[]; run?: Run };
 
 /** The pattern explorer: filters in the address, heatmap and ranked list fetched from route handlers. */
 export function Explorer({
   options,
   unit,
+  confidence,
   initial,
 }: {
   options: PatternOptions;
-  unit: "mi" | "km";
+  unit: DistanceUnit;
+  /** The confidence the latest run's intervals were computed at. */
+  confidence: number;
   initial: { heatmapQuery: string; heatmap: HeatmapData; cellsQuery: string; cells: CellsData };
 }) {
   const router = useRouter();
@@ -49,16 +66,35 @@ export function Explorer({
     initialData: cq === initial.cellsQuery ? initial.cells : undefined,
     placeholderData: keepPreviousData,
   });
-  const metric = params.metric as HeatMetric;
+  const kind = params.kind ?? "failure";
+  const isWear = kind === "wear";
+  // The intervals are named by the run they come from (a recompute may have changed the level).
+  const ctx: MetricContext = {
+    unit,
+    confidence:
+      heatmap.data?.run?.confidenceLevel ?? cells.data?.run?.confidenceLevel ?? confidence,
+  };
+  const metric = metricFor(params.metric, kind);
   const page = Math.max(1, Number(params.page ?? 1) || 1);
   const isFaultView =
     params.view === "faults" && Boolean(params.make && params.model && params.generation);
-  const title = isFaultView
-    ? `${params.make} ${params.model} ${params.generation}: faults × mileage bands (${METRIC_LABELS[metric]})`
-    : `Cohorts × mileage bands, ${params.fault ? `fault ${params.fault}` : "all faults"} (${METRIC_LABELS[metric]})`;
+  const faultLabel = params.fault
+    ? (options.faults.find((f) => f.value === params.fault)?.label ??
+      options.faults.find((f) => f.value.startsWith(`${params.fault}/`))?.system ??
+      params.fault)
+    : isWear
+      ? "all wear"
+      : "all failures";
+  const title =
+    (isWear ? "Wear: " : "") +
+    (isFaultView
+      ? `${params.make} ${params.model} ${params.generation}: ${isWear ? "wear" : "faults"} × mileage bands (${metric.label(unit)})`
+      : `cohorts × mileage bands, ${faultLabel} (${metric.label(unit)})`);
+  const heading = title.charAt(0).toUpperCase() + title.slice(1);
 
   return (
     <div className="space-y-6">
+      <KindSwitch params={params} setParams={setParams} />
       <Filters options={options} params={params} setParams={setParams} />
       <section
         aria-labelledby="heatmap-title"
@@ -66,19 +102,21 @@ export function Explorer({
       >
         <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
           <h2 id="heatmap-title" className="text-base">
-            {title}
+            {heading}
           </h2>
           <div className="flex flex-wrap items-center gap-3 text-sm">
             <label className="flex items-center gap-2">
               <span>Colour shows</span>
               <select
                 className="rounded-md border border-line-strong bg-white px-2 py-1"
-                value={metric}
-                onChange={(e) => setParams({ metric: e.target.value as ExplorerParams["metric"] })}
+                value={params.metric}
+                onChange={(e) => setParams({ metric: e.target.value as ChoosableMetric })}
               >
-                <option value="rate">repairs per 10,000 mi</option>
-                <option value="ratio">rate ratio vs the rest</option>
-                <option value="share">share of vehicles affected</option>
+                {CHOOSABLE_METRICS.map((key) => (
+                  <option key={key} value={key}>
+                    {metricFor(key, kind).label(unit).toLowerCase()}
+                  </option>
+                ))}
               </select>
             </label>
             <label className="flex items-center gap-2">
@@ -93,7 +131,7 @@ export function Explorer({
                   value="faults"
                   disabled={!params.make || !params.model || !params.generation}
                 >
-                  faults of the chosen cohort
+                  {isWear ? "wear" : "faults"} of the chosen cohort
                 </option>
               </select>
             </label>
@@ -110,11 +148,11 @@ export function Explorer({
             rows={heatmap.data.rows}
             bands={heatmap.data.bands}
             metric={metric}
-            unit={unit}
-            title={title}
+            ctx={ctx}
+            title={heading}
             onOpenCell={(row, cell) => {
               const fault =
-                row.faultKey === "all"
+                row.faultKey === "all" || row.faultKey === "all:wear"
                   ? params.fault
                   : row.faultKey.replace(/^dtc:|^component:/, "");
               if (!fault) {
@@ -133,8 +171,8 @@ export function Explorer({
                     make: row.make,
                     model: row.model,
                     generation: row.generation,
-                    bandFrom: cell.bandFrom,
-                    bandTo: cell.bandTo,
+                    bandFrom: cell.bandFromMi,
+                    bandTo: cell.bandToMi,
                     dtc: /^[PCBU][0-3]/i.test(fault) ? fault : null,
                     component: /^[PCBU][0-3]/i.test(fault) ? null : fault,
                   },
@@ -147,12 +185,15 @@ export function Explorer({
       </section>
       <section aria-labelledby="ranked-title">
         <h2 id="ranked-title" className="mb-1 text-lg">
-          Recurring failures, ranked
+          {isWear ? "Early wear, ranked" : "Recurring failures, ranked"}
         </h2>
         <p className="mb-3 text-sm text-ink-soft">
-          Ranked by the lower end of the rate ratio&apos;s 95% interval against the rest of the
-          fleet in the same band, so that one repair on a rare cohort cannot top the list. Bars: the
-          ratio and its interval on a log scale; the dashed line is 1 (no difference).
+          {isWear
+            ? "Parts that wear out sooner on a cohort than on the rest of the fleet in the same band. "
+            : ""}
+          Ranked by the lower end of the {intervalLabel(ctx.confidence)} of times the rest of the
+          fleet in the same band, so that one repair on a rare cohort cannot top the list. Bars:
+          that figure and its interval on a log scale; the dashed line is 1 (no difference).
         </p>
         {cells.error ? (
           <p role="alert" className="text-alarm-700">
@@ -170,7 +211,8 @@ export function Explorer({
             direction={
               (params.direction as "asc" | "desc") ?? (params.sort === "qValue" ? "asc" : "desc")
             }
-            unit={unit}
+            ctx={ctx}
+            kind={kind}
             isFetching={cells.isFetching}
             view={params}
             onSort={(sort, direction) => setParams({ sort, direction })}

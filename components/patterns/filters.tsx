@@ -5,7 +5,13 @@ import type { ExplorerParams } from "./query-strings";
 
 export type PatternOptions = {
   cohorts: { make: string; model: string; generation: string }[];
-  faults: { value: string; label: string; events: number }[];
+  faults: {
+    value: string;
+    label: string;
+    system: string | null;
+    kind: "failure" | "wear" | "service";
+    events: number;
+  }[];
   bands: { from: number; to: number; label: string }[];
 };
 
@@ -36,13 +42,13 @@ export function Filters({
         .map((c) => c.generation),
     ),
   ];
-  const systems = [
-    ...new Set(
-      options.faults
-        .filter((f) => f.value.includes("/"))
-        .map((f) => f.value.split("/")[0] as string),
-    ),
-  ];
+  // The faults of the kind on view (failures, or wear), and their systems by name.
+  const faults = options.faults.filter((f) => f.kind === (params.kind ?? "failure"));
+  const systems = new Map<string, string>();
+  for (const f of faults) {
+    const slug = f.value.includes("/") ? f.value.split("/")[0] : null;
+    if (slug && !systems.has(slug)) systems.set(slug, f.system ?? slug);
+  }
   // The vendor box is typed into: it applies on Enter or on leaving it, not on every key.
   const commitVendor = (value: string) => {
     const vendor = value.trim() || undefined;
@@ -106,16 +112,16 @@ export function Filters({
           value={params.fault ?? ""}
           onChange={(e) => setParams({ fault: e.target.value })}
         >
-          <option value="">all faults</option>
+          <option value="">{params.kind === "wear" ? "all wear" : "all faults"}</option>
           <optgroup label="Systems">
-            {systems.map((s) => (
-              <option key={s} value={s}>
-                {s.replace(/-/g, " ")} (whole system)
+            {[...systems].map(([slug, name]) => (
+              <option key={slug} value={slug}>
+                {name} (whole system)
               </option>
             ))}
           </optgroup>
           <optgroup label="Components and DTCs">
-            {options.faults.map((f) => (
+            {faults.map((f) => (
               <option key={f.value} value={f.value}>
                 {f.label} ({f.events})
               </option>

@@ -1,4 +1,5 @@
-import { heatColour, RATIO_EDGES, TOO_LITTLE, type HeatMetric } from "@/lib/heat-colour";
+import { heatColour, RATIO_EDGES, TOO_LITTLE } from "@/lib/heat-colour";
+import type { DistanceUnit, Metric } from "@/lib/metrics";
 
 const CERTAINTY = ["narrow interval", "", "", "wide interval"];
 
@@ -6,9 +7,10 @@ const CERTAINTY = ["narrow interval", "", "", "wide interval"];
  * The legend explains both axes of the colour: across, the value; down, how sure we are
  * (colours merge and fade towards neutral as the interval widens).
  */
-export function HeatLegend({ metric }: { metric: HeatMetric }) {
+export function HeatLegend({ metric, unit }: { metric: Metric; unit: DistanceUnit }) {
+  const scale = metric.scale;
   const valueLabels =
-    metric === "ratio"
+    scale === "ratio"
       ? [
           `< ${RATIO_EDGES[0]}`,
           `${RATIO_EDGES[0]}–${RATIO_EDGES[1]}`,
@@ -28,7 +30,7 @@ export function HeatLegend({ metric }: { metric: HeatMetric }) {
                 <span
                   key={bin}
                   className="h-4 w-6 rounded-sm"
-                  style={{ background: heatColour(metric, bin, certainty) }}
+                  style={{ background: heatColour(scale, bin, certainty) }}
                 />
               ))}
             </div>
@@ -41,9 +43,10 @@ export function HeatLegend({ metric }: { metric: HeatMetric }) {
           ))}
         </div>
         <figcaption className="mt-1">
-          {metric === "ratio"
-            ? "Rate ratio (1 = like the rest of the fleet)"
-            : "Value, relative to this map's highest"}
+          {metric.label(unit)}
+          {scale === "ratio"
+            ? " (1 = like the rest of the fleet)"
+            : ", relative to this map's highest"}
           ; wide intervals fade towards grey.
         </figcaption>
       </div>

@@ -3,96 +3,49 @@
 import { ResponsiveHeatMap } from "@nivo/heatmap";
 import { useRef } from "react";
 import { buttonClass } from "@/components/ui/button";
-import type { HeatCell, HeatRow } from "@/db/queries/patterns";
-import { formatBand, formatBandShort, formatInterval, formatSig } from "@/lib/format";
-import {
-  certaintyLevel,
-  heatColour,
-  TOO_LITTLE,
-  valueBin,
-  type HeatMetric,
-} from "@/lib/heat-colour";
+import type { HeatRow } from "@/db/queries/patterns";
+import type { HeatCell } from "@/lib/cell-types";
+import { formatBand, formatBandShort } from "@/lib/format";
+import { certaintyLevel, heatColour, TOO_LITTLE, valueBin } from "@/lib/heat-colour";
+import type { Metric, MetricContext } from "@/lib/metrics";
+import { CellFacts } from "./cell-facts";
+import { LABEL_LINE_HEIGHT, WrappedTick, wrapLabel } from "./heat-axis-tick";
 import { HeatLegend } from "./heat-legend";
+import { HeatTable } from "./heat-table";
 
 type Datum = { x: string; y: number | null; cell: HeatCell | null; rowLabel: string };
-
-export const METRIC_LABELS: Record<HeatMetric, string> = {
-  rate: "Repairs per 10,000 mi",
-  ratio: "Rate ratio vs the rest of the fleet",
-  share: "Share of vehicles affected",
-};
-
-/** The value, interval and method of a cell for one metric. */
-export function metricOf(
-  metric: HeatMetric,
-  c: HeatCell,
-): { value: number | null; lower: number | null; upper: number | null; method: string } {
-  if (metric === "ratio")
-    return {
-      value: c.ratio ?? (c.events > 0 && c.ratioLower !== null ? Infinity : null),
-      lower: c.ratioLower,
-      upper: c.ratioUpper,
-      method: "exact conditional (binomial) interval",
-    };
-  if (metric === "share")
-    return {
-      value: c.share,
-      lower: c.shareLower,
-      upper: c.shareUpper,
-      method: "Wilson score interval",
-    };
-  return {
-    value: c.rate,
-    lower: c.rateLower,
-    upper: c.rateUpper,
-    method: "exact Poisson (Garwood) interval",
-  };
-}
-
-function describeCell(
-  metric: HeatMetric,
-  rowLabel: string,
-  band: string,
-  c: HeatCell | null,
-): string {
-  if (!c) return `${rowLabel}, ${band}: no vehicles observed in this band.`;
-  if (c.hasTooLittleData)
-    return `${rowLabel}, ${band}: too little data (${formatSig(c.exposureMi)} mi of exposure).`;
-  const m = metricOf(metric, c);
-  const shown = metric === "share" ? `${formatSig((m.value ?? 0) * 100)}%` : formatSig(m.value);
-  return `${rowLabel}, ${band}: ${shown} (95% ${formatInterval(m.lower, m.upper)}), ${c.events} events in ${formatSig(c.exposureMi)} mi, ${c.vehicles} vehicles${c.isSignal ? ", signal" : ""}.`;
-}
 
 export function Heatmap({
   rows,
   bands,
-  metric,
-  unit,
+  metric: m,
+  ctx,
   onOpenCell,
   title,
 }: {
   rows: HeatRow[];
   bands: { band: number; from: number; to: number }[];
-  metric: HeatMetric;
-  unit: "mi" | "km";
+  /** The metric the colour shows (lib/metrics.ts). */
+  metric: Metric;
+  ctx: MetricContext;
   onOpenCell: (row: HeatRow, cell: HeatCell) => void;
   title: string;
 }) {
   const box = useRef<HTMLDivElement>(null);
+  const unit = ctx.unit;
   const bandLabel = (b: { from: number; to: number }) => formatBandShort(b.from, b.to, unit);
+  const valueOf = (c: HeatCell) => m.value(c, unit);
   const maxValue = Math.max(
     0,
     ...rows
-      .flatMap((r) =>
-        r.cells.filter((c) => !c.hasTooLittleData).map((c) => metricOf(metric, c).value ?? 0),
-      )
+      .flatMap((r) => r.cells.filter((c) => !c.hasTooLittleData).map((c) => valueOf(c) ?? 0))
       .filter(Number.isFinite),
   );
   const data = rows.map((r) => ({
     id: r.label,
     data: bands.map((b): Datum => {
-      const cell = r.cells.find((c) => c.band === b.band) ?? null;
-      const v = cell ? metricOf(metric, cell).value : null;
+      const cell = r.cells.find((c) => c.bandIndex === b.band) ?? null;
+      const v = cell ? valueOf(cell) : null;
       return {
         x: bandLabel(b),
         y:
@@ -113,12 +66,12 @@ export function Heatmap({
   const colourOf = (cell: HeatCell | null) => {
     if (!cell) return "#ffffff";
     if (cell.hasTooLittleData) return TOO_LITTLE;
-    const m = metricOf(metric, cell);
-    const value = m.value === Infinity ? Number.MAX_VALUE : (m.value ?? 0);
+    const value = valueOf(cell);
+    const { lower, upper } = m.interval(cell, unit);
     return heatColour(
-      metric,
-      valueBin(metric, value, maxValue),
-      certaintyLevel(metric, m.lower, m.upper, maxValue),
+      m.scale,
+      valueBin(m.scale, value === Infinity ? Number.MAX_VALUE : (value ?? 0), maxValue),
+      certaintyLevel(m.scale, lower, upper, maxValue),
     );
   };
 
@@ -156,11 +109,16 @@ export function Heatmap({
       <p className="rounded-md bg-paper p-4 text-sm text-ink-soft">No cells match these filters.</p>
     );
   }
-  const height = Math.max(160, rows.length * 34 + 90);
+  // Rows grow with their labels: a long fault name wraps rather than being cut.
+  const rowHeight = Math.max(
+    34,
+    ...rows.map((r) => wrapLabel(r.label).length * LABEL_LINE_HEIGHT + 8),
+  );
+  const height = Math.max(160, rows.length * rowHeight + 90);
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
-        <HeatLegend metric={metric} />
+        <HeatLegend metric={m} unit={unit} />
         <div className="flex gap-2">
           <button type="button" className={buttonClass.quiet} onClick={() => void download("svg")}>
             Download SVG
@@ -173,9 +131,9 @@ export function Heatmap({
       <div ref={box} style={{ height }} className="w-full" data-testid="heatmap">
         <ResponsiveHeatMap<Datum, Record<string, never>>
           data={data as never}
-          margin={{ top: 40, right: 16, bottom: 16, left: 210 }}
+          margin={{ top: 40, right: 16, bottom: 16, left: 240 }}
           axisTop={{ tickSize: 0, tickPadding: 8 }}
-          axisLeft={{ tickSize: 0, tickPadding: 8 }}
+          axisLeft={{ tickSize: 0, tickPadding: 8, renderTick: WrappedTick }}
           xInnerPadding={0.06}
           yInnerPadding={0.1}
           borderRadius={2}
@@ -185,11 +143,7 @@ export function Heatmap({
             const cell = (c.data as Datum).cell;
             if (!cell) return "";
             if (cell.hasTooLittleData) return "n/a";
-            const m = metricOf(metric, cell);
-            if (m.value === Infinity) return "∞";
-            return metric === "share"
-              ? `${Math.round((m.value ?? 0) * 100)}%`
-              : formatSig(m.value, 2);
+            return m.format(valueOf(cell), m.interval(cell, unit));
           }}
           labelTextColor={(c) => {
             const hex = c.color.replace("#", "");
@@ -208,13 +162,13 @@ export function Heatmap({
             const b = bands.find((x) => bandLabel(x) === d.x);
             return (
               <div
-                className="max-w-xs rounded-md border border-line bg-panel px-3 py-2 text-xs shadow"
+                className="w-80 rounded-md border border-line bg-panel px-3 py-2 text-xs shadow"
                 role="tooltip"
               >
                 <p className="font-semibold">{d.rowLabel}</p>
                 <p className="text-ink-soft">{b ? formatBand(b.from, b.to, unit) : d.x}</p>
                 {d.cell ? (
-                  <CellFacts metric={metric} cell={d.cell} />
+                  <CellFacts metric={m} cell={d.cell} ctx={ctx} />
                 ) : (
                   <p>No vehicles observed in this band.</p>
                 )}
@@ -230,108 +184,14 @@ export function Heatmap({
           ariaLabel={title}
         />
       </div>
-      {/* The same cells as a table: keyboard reachable, and what a screen reader reads. */}
-      <details className="mt-3">
-        <summary className="cursor-pointer text-sm text-sea-700">
-          Show the heatmap as a table
-        </summary>
-        <div className="mt-2 overflow-x-auto">
-          <table className="w-full text-left text-xs">
-            <caption className="sr-only">{title}</caption>
-            <thead>
-              <tr>
-                <th scope="col" className="py-1 pr-2 font-medium">
-                  Row
-                </th>
-                {bands.map((b) => (
-                  <th key={b.band} scope="col" className="whitespace-nowrap py-1 pr-2 font-medium">
-                    {formatBand(b.from, b.to, unit)}
-                  </th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>
-              {rows.map((r) => (
-                <tr key={r.id} className="border-t border-line/60">
-                  <th scope="row" className="py-1 pr-2 font-medium">
-                    {r.label}
-                  </th>
-                  {bands.map((b) => {
-                    const c = r.cells.find((x) => x.band === b.band) ?? null;
-                    const text = describeCell(metric, r.label, formatBand(b.from, b.to, unit), c);
-                    return (
-                      <td key={b.band} className="py-1 pr-2">
-                        {c ? (
-                          <button
-                            type="button"
-                            className="text-left text-sea-700 underline-offset-2 hover:underline"
-                            onClick={() => onOpenCell(r, c)}
-                            aria-label={text}
-                          >
-                            {c.hasTooLittleData
-                              ? "too little data"
-                              : metric === "share"
-                                ? `${formatSig((metricOf(metric, c).value ?? 0) * 100)}%`
-                                : formatSig(metricOf(metric, c).value)}
-                          </button>
-                        ) : (
-                          "—"
-                        )}
-                      </td>
-                    );
-                  })}
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      </details>
+      <HeatTable
+        rows={rows}
+        bands={bands}
+        metric={m}
+        ctx={ctx}
+        title={title}
+        onOpenCell={onOpenCell}
+      />
     </div>
-  );
-}
-
-export function CellFacts({ metric, cell }: { metric: HeatMetric; cell: HeatCell }) {
-  if (cell.hasTooLittleData) {
-    return (
-      <p>
-        Too little data: {formatSig(cell.exposureMi)} mi of exposure, {cell.events} events. Not
-        tested.
-      </p>
-    );
-  }
-  const m = metricOf(metric, cell);
-  return (
-    <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-2">
-      <dt>{METRIC_LABELS[metric]}</dt>
-      <dd data-testid="tooltip-value">
-        {metric === "share"
-          ? `${formatSig((m.value ?? 0) * 100)}%`
-          : m.value === Infinity
-            ? "no events elsewhere"
-            : formatSig(m.value)}
-      </dd>
-      <dt>95% interval</dt>
-      <dd data-testid="tooltip-interval">
-        {metric === "share"
-          ? `${formatSig((m.lower ?? 0) * 100)}–${formatSig((m.upper ?? 0) * 100)}%`
-          : formatInterval(m.lower, m.upper)}
-      </dd>
-      <dt>Method</dt>
-      <dd>{m.method}</dd>
-      <dt>Events</dt>
-      <dd>{cell.events}</dd>
-      <dt>Exposure</dt>
-      <dd>{formatSig(cell.exposureMi)} mi</dd>
-      <dt>Vehicles</dt>
-      <dd>
-        {cell.vehiclesAffected} of {cell.vehicles} affected
-      </dd>
-      {cell.isSignal ? (
-        <>
-          <dt>Signal</dt>
-          <dd>yes (q = {formatSig(cell.qValue, 2)})</dd>
-        </>
-      ) : null}
-    </dl>
   );
 }

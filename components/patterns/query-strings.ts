@@ -1,7 +1,11 @@
+import { CHOOSABLE_METRICS, type ChoosableMetric } from "@/lib/metrics";
+
 /** Query strings of the explorer's API calls; shared by the server page (prefetch) and the client. */
 export type ExplorerParams = {
   view: "cohorts" | "faults";
-  metric: "rate" | "ratio" | "share";
+  metric: ChoosableMetric;
+  /** "wear": the wear cells (wearing out sooner than on the rest of the fleet); absent: failures. */
+  kind?: "wear";
   fault?: string;
   make?: string;
   model?: string;
@@ -20,6 +24,7 @@ export type ExplorerParams = {
 
 /** The filters every view shares. */
 const FILTER_KEYS = [
+  "kind",
   "fault",
   "make",
   "model",
@@ -82,7 +87,8 @@ export function explorerParams(raw: Record<string, string | undefined>): Explore
   return {
     ...out,
     view: out.view === "faults" ? "faults" : "cohorts",
-    metric: out.metric === "ratio" || out.metric === "share" ? out.metric : "rate",
+    metric: CHOOSABLE_METRICS.find((m) => m === out.metric) ?? "rate",
+    kind: out.kind === "wear" ? "wear" : undefined,
   } as ExplorerParams;
 }
 

@@ -9,16 +9,37 @@ import {
 } from "@tanstack/react-table";
 import Link from "next/link";
 import { buttonClass } from "@/components/ui/button";
-import type { RankedCell } from "@/db/queries/cells";
-import { formatBand, formatInterval, formatSig } from "@/lib/format";
+import { FigureDetails } from "@/components/ui/figure-details";
+import { cellOfRanked, type RankedCell } from "@/lib/cell-types";
+import { formatBand } from "@/lib/format";
+import {
+  cellDetails,
+  metricFigure,
+  metricFor,
+  metricHeader,
+  RATIO,
+  type MetricContext,
+} from "@/lib/metrics";
+import { formatPlain } from "@/lib/plain-words";
+import { milesToUnit } from "@/lib/units";
 import { ForestAxis, ForestBar } from "./forest-bar";
+import { KindBadge } from "@/components/ui/kind-badge";
 import { cellHref, type ExplorerParams } from "./query-strings";
 
 export type RankedRow = RankedCell & { firstSeen: string | null };
 
 const column = createColumnHelper<RankedRow>();
 
-/** Recurring failures ranked on the server; sorting and paging ask the server again. */
+/** A figure of the table: the value, and its interval in words. */
+function Figure({ value, likely }: { value: string; likely: string }) {
+  return (
+    <span className="tabular-nums">
+      {value} <span className="block text-xs text-ink-soft">{likely}</span>
+    </span>
+  );
+}
+
+/** Recurring failures (or early wear) ranked on the server; sorting and paging ask the server again. */
 export function RankedTable({
   rows,
   total,
@@ -26,7 +47,8 @@ export function RankedTable({
   pageSize,
   sort,
   direction,
-  unit,
+  ctx,
+  kind,
   onSort,
   onPage,
   csvHref,
@@ -39,7 +61,9 @@ export function RankedTable({
   pageSize: number;
   sort: string;
   direction: "asc" | "desc";
-  unit: "mi" | "km";
+  /** The organisation's unit and the confidence of the cells' run. */
+  ctx: MetricContext;
+  kind: "failure" | "wear";
   onSort: (sort: string, direction: "asc" | "desc") => void;
   onPage: (page: number) => void;
   csvHref: string;
@@ -47,6 +71,8 @@ export function RankedTable({
   /** The explorer's period and vendor, carried into the drill-down. */
   view?: Pick<ExplorerParams, "from" | "to" | "vendor">;
 }) {
+  const unit = ctx.unit;
+  const rate = metricFor("rate", kind);
   const columns = [
     column.accessor((r) => `${r.make} ${r.model} ${r.generation}`, {
       id: "cohort",
@@ -58,62 +84,66 @@ export function RankedTable({
       id: "band",
       header: "Mileage band",
       enableSorting: false,
+      cell: (i) => <span className="whitespace-nowrap">{i.getValue()}</span>,
     }),
-    column.accessor((r) => r.dtc ?? r.component ?? "", {
+    column.accessor("faultName", {
       id: "fault",
       header: "Fault",
       enableSorting: false,
-      cell: (i) => <span className="font-mono text-[13px]">{i.getValue()}</span>,
+      cell: (i) => (
+        <span className="block min-w-40">
+          {i.getValue()} <KindBadge kind={i.row.original.kind} />
+        </span>
+      ),
     }),
     column.accessor("events", {
       id: "events",
-      header: "Events / exposure",
+      header: "Repairs, and distance driven",
       cell: (i) => (
         <span className="tabular-nums">
-          {i.row.original.events} in {formatSig(i.row.original.exposureMiles)} mi
+          {i.row.original.events} in {formatPlain(milesToUnit(i.row.original.exposureMiles, unit))}{" "}
+          {unit}
         </span>
       ),
     }),
     column.accessor("rate", {
       id: "rate",
-      header: "Per 10,000 mi (95%)",
-      cell: (i) => (
-        <span className="tabular-nums">
-          {formatSig(i.row.original.rate)}{" "}
-          <span className="text-ink-soft">
-            ({formatInterval(i.row.original.rateLower, i.row.original.rateUpper)})
-          </span>
-        </span>
-      ),
+      header: metricHeader(rate, ctx),
+      cell: (i) => <Figure {...metricFigure(rate, cellOfRanked(i.row.original), unit)} />,
     }),
     column.accessor("ratioLower", {
       id: "ratioLower",
-      header: "Rate ratio vs rest (95%)",
+      header: metricHeader(RATIO, ctx),
       cell: (i) => {
         const r = i.row.original;
         return (
           <div className="flex items-center gap-2">
             <ForestBar ratio={r.ratio} lower={r.ratioLower} upper={r.ratioUpper} />
-            <span className="whitespace-nowrap tabular-nums">
-              {r.ratio === null ? (r.events > 0 ? "∞" : "—") : formatSig(r.ratio)}{" "}
-              <span className="text-ink-soft">({formatInterval(r.ratioLower, r.ratioUpper)})</span>
-            </span>
+            <Figure {...metricFigure(RATIO, cellOfRanked(r), unit)} />
           </div>
         );
       },
     }),
     column.accessor("signal", {
       id: "signal",
-      header: "Signal",
+      header: "Signal, and how it is worked out",
       enableSorting: false,
-      cell: (i) =>
-        i.getValue() ? (
-          <span className="rounded bg-ochre-100 px-1.5 py-0.5 text-xs font-semibold text-ochre-700">
-            signal
-          </span>
-        ) : (
-          <span className="text-xs text-ink-soft">q {formatSig(i.row.original.qValue, 2)}</span>
-        ),
+      cell: (i) => (
+        <div className="min-w-32">
+          {i.getValue() ? (
+            <span className="rounded bg-ochre-100 px-1.5 py-0.5 text-xs font-semibold text-ochre-700">
+              signal
+            </span>
+          ) : (
+            <span className="text-xs text-ink-soft">not a signal</span>
+          )}
+          <FigureDetails
+            summary="Details"
+            className="text-xs"
+            rows={cellDetails(cellOfRanked(i.row.original), ctx)}
+          />
+        </div>
+      ),
     }),
     column.accessor("firstSeen", {
       id: "firstSeen",
@@ -147,7 +177,8 @@ export function RankedTable({
       >
         <table className="w-full text-left text-sm">
           <caption className="sr-only">
-            Recurring failures ranked by the lower bound of the rate ratio
+            {kind === "wear" ? "Early wear" : "Recurring failures"} ranked by the lower end of the
+            interval of times the rest of the fleet
           </caption>
           <thead className="border-b border-line bg-paper text-ink-soft">
             {table.getHeaderGroups().map((g) => (
@@ -197,7 +228,7 @@ export function RankedTable({
             {rows.length === 0 ? (
               <tr>
                 <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-soft">
-                  No recurring failures match these filters.
+                  {kind === "wear" ? "No early wear" : "No recurring failures"} match these filters.
                 </td>
               </tr>
             ) : null}

@@ -1,37 +1,13 @@
 import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import type { Db } from "@/db";
+import { RANKED_FIELDS, toRankedCell, type RankedCell } from "@/lib/cell-types";
 import type { AnalysedKind } from "@/lib/component-kinds";
+import { faultName } from "@/lib/plain-words";
+import { cellColumnsSql, readCell, steadyInterval } from "./cell-rows";
 import { assertCan, type OrgScope } from "./scope";
 
-/** One ranked cell, in the shape the command line and the route handlers share. */
-export type RankedCell = {
-  make: string;
-  model: string;
-  generation: string;
-  yearFrom: number;
-  yearTo: number;
-  bandFrom: number;
-  bandTo: number;
-  dtc: string | null;
-  component: string | null;
-  /** failure or wear (never service): which lines the cell counts. */
-  kind: AnalysedKind;
-  events: number;
-  exposureMiles: number;
-  vehicles: number;
-  vehiclesAffected: number;
-  rate: number | null;
-  rateLower: number | null;
-  rateUpper: number | null;
-  ratio: number | null;
-  ratioLower: number | null;
-  ratioUpper: number | null;
-  pValue: number | null;
-  qValue: number | null;
-  shrunkRate: number | null;
-  signal: boolean;
-};
+export type { RankedCell };
 
 export type CellFilter = {
   /** A DTC ("P0441") or a component slug ("fuel-vapour/purge-valve"). */
@@ -57,14 +33,22 @@ export type CellFilter = {
 /** The fault keys of the "all faults" totals (failure and wear), which are not faults to rank. */
 export const ALL_FAULT_KEYS_SQL = sql.raw(`('all', 'all:wear')`);
 
-/** The table of the latest run's cells, or of a filtered view's, as `c`, and its condition. */
+/**
+ * The table of the latest run's cells, or of a filtered view's, as `c`, its condition, and the
+ * confidence its run was computed at (as `confidence_level` in a select list).
+ */
 export function cellSource(organisationId: number, viewId?: number | null) {
   return viewId
     ? {
         table: sql.raw("cell_view_stats"),
         where: sql`c.organisation_id = ${organisationId} and c.view_id = ${viewId}`,
+        confidence: sql`(select r.confidence_level from analysis_runs r join cell_views w on w.run_id = r.id where w.id = c.view_id) as confidence_level`,
       }
-    : { table: sql.raw("cell_stats"), where: sql`c.organisation_id = ${organisationId}` };
+    : {
+        table: sql.raw("cell_stats"),
+        where: sql`c.organisation_id = ${organisationId}`,
+        confidence: sql`(select r.confidence_level from analysis_runs r where r.id = c.run_id) as confidence_level`,
+      };
 }
 
 export const CELL_SORTS = [
@@ -87,6 +71,13 @@ const SORT_SQL: Record<CellSort, string> = {
 };
 
 const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
+
+/** The stored fields a ranked cell carries (its JSON names: lib/cell-types.ts RANKED_FIELDS). */
+const RANKED_STORED = [
+  ...new Set(
+    Object.values(RANKED_FIELDS).filter((f) => f !== "shrunkLower" && f !== "shrunkUpper"),
+  ),
+] as Exclude<(typeof RANKED_FIELDS)[keyof typeof RANKED_FIELDS], "shrunkLower" | "shrunkUpper">[];
 
 /**
  * Cells of the organisation's latest analysis run ranked by the lower bound of the rate ratio
@@ -121,13 +112,14 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
   const direction = filter.direction ?? (filter.sort === "qValue" ? "asc" : "desc");
   const orderBy = `${column} is null, ${column} ${direction === "asc" ? "asc" : "desc"}, c.shrunk_rate_per_10k desc, c.events desc, c.id`;
   const rows = await db.all<Record<string, unknown>>(sql`
-    select c.make, c.model, c.cohort_label, g.year_from, g.year_to, c.band_from_mi, c.band_to_mi, c.dtc,
-           k.slug as component, c.kind, c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected,
-           c.rate_per_10k, c.rate_lower, c.rate_upper, c.rate_ratio, c.ratio_lower, c.ratio_upper,
-           c.p_value, c.q_value, c.shrunk_rate_per_10k, c.is_signal, s.created_at as first_seen
+    select ${cellColumnsSql([...RANKED_STORED, "faultKey", "posteriorShape", "posteriorExposureMi"])},
+           ${source.confidence}, g.year_from, g.year_to, k.slug as component_slug,
+           k.system as component_system, k.name as component_name, d.description as dtc_description,
+           s.created_at as first_seen
       from ${source.table} c
       left join generations g on g.id = c.generation_id
       left join components k on k.id = c.component_id
+      left join dtc_codes d on d.code = c.dtc
       left join signals s on s.organisation_id = c.organisation_id and s.make = c.make and s.model = c.model
         and s.cohort_label = c.cohort_label and s.band_index = c.band_index and s.fault_key = c.fault_key
      where ${filterSql}
@@ -135,38 +127,32 @@ export async function listRankedCells(db: Db, scope: OrgScope, filter: CellFilte
      limit ${filter.limit} offset ${filter.offset ?? 0}`);
   const [count] = await db.all<{ n: number }>(sql`
     select count(*) as n from ${source.table} c left join components k on k.id = c.component_id where ${filterSql}`);
+  const text = (v: unknown) => (v === null || v === undefined ? null : String(v));
   const cells: (RankedCell & { firstSeen?: string | null })[] = rows.map((r) => {
-    const label = String(r.cohort_label);
-    const year = /^\d{4}$/.test(label) ? Number(label) : null;
-    return {
-      make: String(r.make),
-      model: String(r.model),
-      generation: label,
-      yearFrom: num(r.year_from) ?? year ?? 0,
-      yearTo: num(r.year_to) ?? year ?? 0,
-      bandFrom: Number(r.band_from_mi),
-      bandTo: Number(r.band_to_mi),
-      dtc: r.dtc === null ? null : String(r.dtc),
-      component: r.component === null ? null : String(r.component),
-      kind: r.kind === "wear" ? "wear" : "failure",
-      events: Number(r.events),
-      exposureMiles: Number(r.exposure_mi),
-      vehicles: Number(r.vehicles_at_risk),
-      vehiclesAffected: Number(r.vehicles_affected),
-      rate: num(r.rate_per_10k),
-      rateLower: num(r.rate_lower),
-      rateUpper: num(r.rate_upper),
-      ratio: num(r.rate_ratio),
-      ratioLower: num(r.ratio_lower),
-      ratioUpper: num(r.ratio_upper),
-      pValue: num(r.p_value),
-      qValue: num(r.q_value),
-      shrunkRate: num(r.shrunk_rate_per_10k),
-      signal: Boolean(r.is_signal),
-      ...(filter.withFirstSeen
-        ? { firstSeen: r.first_seen === null ? null : String(r.first_seen) }
-        : {}),
-    };
+    const cell = readCell(r, [...RANKED_STORED, "faultKey"]);
+    const year = /^\d{4}$/.test(cell.cohortLabel) ? Number(cell.cohortLabel) : null;
+    const ranked = toRankedCell(
+      {
+        ...cell,
+        ...steadyInterval(
+          readCell(r, ["posteriorShape", "posteriorExposureMi"]),
+          Number(r.confidence_level),
+        ),
+      },
+      {
+        yearFrom: num(r.year_from) ?? year ?? 0,
+        yearTo: num(r.year_to) ?? year ?? 0,
+        component: text(r.component_slug),
+        faultName: faultName({
+          dtc: cell.dtc,
+          dtcDescription: text(r.dtc_description),
+          componentSystem: text(r.component_system),
+          componentName: text(r.component_name),
+          faultKey: cell.faultKey,
+        }),
+      },
+    );
+    return filter.withFirstSeen ? { ...ranked, firstSeen: text(r.first_seen) } : ranked;
   });
   return { cells, total: Number(count?.n ?? 0) };
 }

@@ -1,9 +1,9 @@
 import "server-only";
 import { sql, type SQL } from "drizzle-orm";
 import type { Db } from "@/db";
-import { findComebacks } from "@/lib/comebacks";
-import { wilsonInterval, type ProportionInterval } from "@/lib/stats";
+import { PLACE_FIELDS, type CellPlace, type HeatCell } from "@/lib/cell-types";
 import { unitToMiles } from "@/lib/units";
+import { faultNameOf, HEAT_COLUMNS, readCell, toHeatCell } from "./cell-rows";
 import type { KnownIssueDetail } from "./known-issues";
 import { assertCan, type OrgScope } from "./scope";
 
@@ -47,42 +47,22 @@ export function faultSql(issue: Pick<IssueScope, "dtcCodes" | "component">): SQL
   return parts.length ? sql`(l.kind <> 'service' and (${sql.join(parts, sql` or `)}))` : sql`0`;
 }
 
-export type EvidenceCell = {
-  make: string;
-  model: string;
-  generation: string;
-  faultKey: string;
-  band: number;
-  bandFromMi: number;
-  bandToMi: number;
-  events: number;
-  exposureMi: number;
-  vehicles: number;
-  rate: number | null;
-  rateLower: number | null;
-  rateUpper: number | null;
-  ratio: number | null;
-  ratioLower: number | null;
-  ratioUpper: number | null;
-  isSignal: boolean;
-  hasTooLittleData: boolean;
-};
+/** A computed cell a known issue covers: where it sits, its band, its figures and its fault's name. */
+export type EvidenceCell = HeatCell & CellPlace & { faultName: string };
 
 /**
  * The live evidence of a known issue from the data as it is now: the computed cells it covers,
  * the vehicles it has affected, the vehicles at risk (same cohorts, within one band below the
- * range or inside it, not yet affected), and how often its fix held (comebacks within the
- * organisation's window, Wilson interval).
+ * range or inside it, not yet affected). How often its fix held: getKnownIssueFixHeld
+ * (fix-held.ts), the one definition the lookup shows too.
  */
 export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: IssueScope) {
   assertCan(scope, "known-issues:read");
   const [settings] = await db.all<{
     band_width: number;
     distance_unit: "mi" | "km";
-    comeback_days: number;
-    comeback_distance: number;
     confidence_level: number;
-  }>(sql`select band_width, distance_unit, comeback_days, comeback_distance, confidence_level
+  }>(sql`select band_width, distance_unit, confidence_level
            from organisations where id = ${scope.organisationId}`);
   if (!settings) throw new Error("getKnownIssueEvidence: organisation missing");
   const unit = settings.distance_unit;
@@ -97,10 +77,11 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
     issue.cohorts.length === 0 || faultKeys.length === 0
       ? []
       : await db.all<Record<string, unknown>>(sql`
-    select c.make, c.model, c.cohort_label, c.fault_key, c.band_index, c.band_from_mi, c.band_to_mi,
-           c.events, c.exposure_mi, c.vehicles_at_risk, c.rate_per_10k, c.rate_lower, c.rate_upper,
-           c.rate_ratio, c.ratio_lower, c.ratio_upper, c.is_signal, c.has_too_little_data
-      from cell_stats c
+    select ${HEAT_COLUMNS(sql`r.confidence_level`)}, k.name as component_name,
+           k.system as component_system, d.description as dtc_description
+      from cell_stats c join analysis_runs r on r.id = c.run_id
+      left join components k on k.id = c.component_id
+      left join dtc_codes d on d.code = c.dtc
      where c.organisation_id = ${scope.organisationId}
        and c.fault_key in (${sql.join(
          faultKeys.map((k) => sql`${k}`),
@@ -119,24 +100,9 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
      order by c.make, c.model, c.cohort_label, c.fault_key, c.band_index`);
   const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
   const cells: EvidenceCell[] = cohortCells.map((r) => ({
-    make: String(r.make),
-    model: String(r.model),
-    generation: String(r.cohort_label),
-    faultKey: String(r.fault_key),
-    band: Number(r.band_index),
-    bandFromMi: Number(r.band_from_mi),
-    bandToMi: Number(r.band_to_mi),
-    events: Number(r.events),
-    exposureMi: Number(r.exposure_mi),
-    vehicles: Number(r.vehicles_at_risk),
-    rate: num(r.rate_per_10k),
-    rateLower: num(r.rate_lower),
-    rateUpper: num(r.rate_upper),
-    ratio: num(r.rate_ratio),
-    ratioLower: num(r.ratio_lower),
-    ratioUpper: num(r.ratio_upper),
-    isSignal: Boolean(r.is_signal),
-    hasTooLittleData: Boolean(r.has_too_little_data),
+    ...readCell(r, PLACE_FIELDS),
+    ...toHeatCell(r),
+    faultName: faultNameOf(r),
   }));
 
   // Every repair of the fault in the cohorts (any mileage): for comebacks; within the range: affected.
@@ -155,27 +121,6 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
   const affectedIds = new Set(
     lines.filter((l) => inRange(num(l.odometer_mi))).map((l) => Number(l.vehicle_id)),
   );
-  const visits = lines.map((l) => ({
-    id: Number(l.id),
-    vehicleId: Number(l.vehicle_id),
-    openedOn: String(l.opened_on),
-    odometerMi: num(l.odometer_mi),
-  }));
-  const comebacks = findComebacks(visits, {
-    days: settings.comeback_days,
-    miles: unitToMiles(settings.comeback_distance, unit),
-  });
-  // Fixes = visits (one per vehicle per day); a fix held unless a comeback followed it.
-  const fixes = new Set(visits.map((v) => `${v.vehicleId}|${v.openedOn}`)).size;
-  const comebackRate: (ProportionInterval & { comebacks: number; fixes: number }) | null =
-    fixes > 0
-      ? {
-          ...wilsonInterval(comebacks.length, fixes, Number(settings.confidence_level)),
-          comebacks: comebacks.length,
-          fixes,
-        }
-      : null;
-
   const cohortVehicles = await db.all<{
     id: number;
     unit_number: string | null;
@@ -228,9 +173,12 @@ export async function getKnownIssueEvidence(db: Db, scope: OrgScope, issue: Issu
     atRisk,
     cohortVehicles: cohortVehicles.length,
     unknownOdometer,
-    comebackRate,
-    comebackWindow: { days: settings.comeback_days, distance: settings.comeback_distance, unit },
     confidenceLevel: Number(settings.confidence_level),
+    /** The confidence the cells' run was computed at (their intervals'). */
+    cellConfidence:
+      cohortCells[0] === undefined
+        ? Number(settings.confidence_level)
+        : Number(cohortCells[0].confidence_level),
     bandWidthMi,
   };
 }

@@ -31,6 +31,7 @@ import {
   type KnownIssueInput,
 } from "@/lib/known-issues";
 import { getConfiguredBaseUrl } from "@/lib/env";
+import { faultName } from "@/lib/plain-words";
 import { unitToMiles } from "@/lib/units";
 import { findUserName } from "./accounts";
 import { recordAudit } from "./audit";
@@ -45,6 +46,8 @@ export type KnownIssueListItem = {
   mileageFromMi: number | null;
   mileageToMi: number | null;
   dtcCodes: string[];
+  /** The codes by their names ("P0496 — …"). */
+  dtcNames: string[];
   component: string | null;
   cohorts: string[];
   confirmedFindings: number;
@@ -53,6 +56,21 @@ export type KnownIssueListItem = {
 };
 
 const splitCodes = (s: string | null) => (s ? s.split(/\s+/).filter(Boolean) : []);
+
+/** A known issue's DTCs with their descriptions ("code<TAB>description" lines), by a sub-select. */
+const DTC_DESCRIPTIONS = sql<
+  string | null
+>`(select group_concat(d.code || char(9) || d.description, char(10))
+  from dtc_codes d
+ where instr(' ' || coalesce(known_issues.dtc_codes, '') || ' ', ' ' || d.code || ' ') > 0)`;
+
+/** The codes by their names, code first ("P0496 — …"), in the issue's order. */
+function dtcNames(codes: string[], descriptions: string | null): string[] {
+  const byCode = new Map(
+    (descriptions ?? "").split("\n").map((l) => l.split("\t") as [string, string | undefined]),
+  );
+  return codes.map((code) => faultName({ dtc: code, dtcDescription: byCode.get(code) ?? null }));
+}
 
 /** The cohorts of a set of known issues as labels ("Aurel Kestrel K2", "Brindle Tern (all)"). */
 async function cohortLabels(db: DbOrTx, scope: OrgScope, ids: number[]) {
@@ -92,6 +110,7 @@ export async function listKnownIssues(
       mileageFromMi: knownIssues.mileageFromMi,
       mileageToMi: knownIssues.mileageToMi,
       dtcCodes: knownIssues.dtcCodes,
+      dtcDescriptions: DTC_DESCRIPTIONS,
       componentSystem: components.system,
       componentName: components.name,
       createdAt: knownIssues.createdAt,
@@ -119,6 +138,7 @@ export async function listKnownIssues(
     mileageFromMi: r.mileageFromMi,
     mileageToMi: r.mileageToMi,
     dtcCodes: splitCodes(r.dtcCodes),
+    dtcNames: dtcNames(splitCodes(r.dtcCodes), r.dtcDescriptions),
     component: r.componentName ? `${r.componentSystem} → ${r.componentName}` : null,
     cohorts: cohorts.get(r.id) ?? [],
     confirmedFindings: Number(r.confirmed),
@@ -136,6 +156,7 @@ export async function getKnownIssue(db: Db, scope: OrgScope, id: number) {
       componentSlug: components.slug,
       componentSystem: components.system,
       componentName: components.name,
+      dtcDescriptions: DTC_DESCRIPTIONS,
       createdByName: users.name,
     })
     .from(knownIssues)
@@ -259,6 +280,8 @@ export async function getKnownIssue(db: Db, scope: OrgScope, id: number) {
     mileageToMi: i.mileageToMi,
     symptoms: splitCodes(i.symptoms),
     dtcCodes: splitCodes(i.dtcCodes),
+    /** The codes by their names ("P0496 — …"). */
+    dtcNames: dtcNames(splitCodes(i.dtcCodes), issue.dtcDescriptions),
     component: issue.componentSlug
       ? { slug: issue.componentSlug, system: issue.componentSystem, name: issue.componentName }
       : null,

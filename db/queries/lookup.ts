@@ -29,7 +29,6 @@ import {
   absorbCells,
   causeShare,
   describeRecordedFix,
-  fixSuccess,
   isFixOf,
   rankCauses,
   selectMatchedLines,
@@ -38,6 +37,9 @@ import {
   type FindingCounts,
   type LookupLine,
 } from "@/lib/lookup";
+import type { CellFigures, StoredCell } from "@/lib/cell-types";
+import { fixHeld, type FixHeld } from "@/lib/fix-held";
+import { faultName } from "@/lib/plain-words";
 import { mileageBand } from "@/lib/stats";
 import { formatDistance, unitToMiles } from "@/lib/units";
 import { normaliseVin } from "@/lib/vin";
@@ -45,6 +47,8 @@ import { recordAudit } from "./audit";
 import { componentIdOfSlug } from "./reference";
 import { queueEmail } from "./email";
 import { getKnownIssue, type KnownIssueDetail } from "./known-issues";
+import { cellColumnsSql, FIGURE_COLUMNS_SQL, readCell, readFigures } from "./cell-rows";
+import { getFixHeldSettings, getKnownIssueFixHeld } from "./fix-held";
 import { assertCan, ConflictError, inOrg, NotFoundError, orgWhere, type OrgScope } from "./scope";
 
 const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
@@ -58,20 +62,17 @@ async function settingsOf(db: Db, scope: OrgScope) {
     distance_unit: "mi" | "km";
     comeback_days: number;
     comeback_distance: number;
-    confidence_level: number;
-  }>(sql`select band_width, distance_unit, comeback_days, comeback_distance, confidence_level
+  }>(sql`select band_width, distance_unit, comeback_days, comeback_distance
            from organisations where id = ${scope.organisationId}`);
   if (!s) throw new NotFoundError("No such organisation.");
   const unit = s.distance_unit;
+  // The comeback window, confidence and latest repair: the ones every fix-held figure reads.
+  const fix = await getFixHeldSettings(db, scope);
   return {
     unit,
     bandWidthMi: unitToMiles(Number(s.band_width), unit),
-    window: {
-      days: Number(s.comeback_days),
-      miles: unitToMiles(Number(s.comeback_distance), unit),
-    },
+    ...fix,
     comebackWindow: { days: Number(s.comeback_days), distance: Number(s.comeback_distance) },
-    confidence: Number(s.confidence_level),
   };
 }
 
@@ -209,18 +210,21 @@ export type CauseResult = {
     /** Where the fix comes from: the known issue, or what the repair records write. */
     source: "known-issue" | "records";
   };
-  fixSuccess: ReturnType<typeof fixSuccess>;
+  /** How often the fix held (lib/fix-held.ts): a known issue's own figure, as on its page. */
+  fixHeld: FixHeld | null;
   cautions: CauseCaution[];
-  cell: {
-    events: number;
-    exposureMi: number;
-    rate: number | null;
-    rateLower: number | null;
-    rateUpper: number | null;
-    isSignal: boolean;
-    hasTooLittleData: boolean;
-  } | null;
+  /** The computed cell of this fault in the vehicle's cohort and band. */
+  cell: LookupCell | null;
 };
+
+/** A computed cell of the vehicle's cohort and band, as the lookup shows it. */
+export type LookupCell = CellFigures &
+  Pick<StoredCell, "faultKey" | "dtc"> & {
+    /** The component's slug (a DTC cell has none). */
+    component: string | null;
+    /** The fault by its name: "P0496 — …", "Fuel vapour → Purge valve". */
+    faultName: string;
+  };
 
 export type LookupRequest = {
   vin?: string;
@@ -236,7 +240,7 @@ export type LookupRequest = {
 /**
  * The lookup: the vehicle (within the organisation), its cohort and mileage band, and the known
  * issues and computed cells that fit, ranked by how often each was the cause (lib/lookup.ts,
- * RANKING_RULE). Retired known issues are not offered; a known issue absorbs the cell of its
+ * rankingRule). Retired known issues are not offered; a known issue absorbs the cell of its
  * own fault.
  */
 export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
@@ -340,26 +344,33 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
   // entered codes' own cells say how often the code itself comes up.
   const cellRows = band
     ? await db.all<Record<string, unknown>>(sql`
-        select c.fault_key, c.dtc, k.slug, k.system, k.name, c.events, c.exposure_mi, c.rate_per_10k,
-               c.rate_lower, c.rate_upper, c.is_signal, c.has_too_little_data
-          from cell_stats c left join components k on k.id = c.component_id
+        select ${cellColumnsSql(["faultKey", "dtc"])}, ${FIGURE_COLUMNS_SQL}, r.confidence_level,
+               k.slug, k.system as component_system, k.name as component_name,
+               d.description as dtc_description
+          from cell_stats c join analysis_runs r on r.id = c.run_id
+          left join components k on k.id = c.component_id
+          left join dtc_codes d on d.code = c.dtc
          where c.organisation_id = ${scope.organisationId} and c.make = ${vehicle.make}
            and c.model = ${vehicle.model} and c.cohort_label = ${cohortLabel}
            and c.band_index = ${band.index} and c.kind = 'failure' and c.fault_key <> 'all'`)
     : [];
-  const cells = cellRows.map((r) => ({
-    faultKey: String(r.fault_key),
-    dtc: r.dtc === null ? null : String(r.dtc),
-    component: r.slug === null ? null : String(r.slug),
-    componentLabel: r.slug === null ? null : `${String(r.system)} → ${String(r.name)}`,
-    events: Number(r.events),
-    exposureMi: Number(r.exposure_mi),
-    rate: num(r.rate_per_10k),
-    rateLower: num(r.rate_lower),
-    rateUpper: num(r.rate_upper),
-    isSignal: Boolean(r.is_signal),
-    hasTooLittleData: Boolean(r.has_too_little_data),
-  }));
+  const cells: LookupCell[] = cellRows.map((r) => {
+    const place = readCell(r, ["faultKey", "dtc"]);
+    return {
+      ...place,
+      ...readFigures(r),
+      component: r.slug === null ? null : String(r.slug),
+      faultName: faultName({
+        dtc: place.dtc,
+        dtcDescription: r.dtc_description === null ? null : String(r.dtc_description),
+        componentSystem: r.component_system === null ? null : String(r.component_system),
+        componentName: r.component_name === null ? null : String(r.component_name),
+        faultKey: place.faultKey,
+      }),
+    };
+  });
+  // The confidence of the cells' run (their intervals'), else the organisation's.
+  const cellConfidence = cellRows[0] ? Number(cellRows[0].confidence_level) : settings.confidence;
   const componentCell = (slug: string | null) =>
     slug ? (cells.find((c) => c.component === slug) ?? null) : null;
 
@@ -380,39 +391,34 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
       .filter((c) => c.component !== null && c.events > 0)
       .map((c) => ({ cell: c, fault: { component: c.component, dtcs: [] } as Fault })),
   )
-    .map(({ cell, fault }): Candidate<(typeof cells)[number]> => ({
+    .map(({ cell, fault }): Candidate<LookupCell> => ({
       key: cell.faultKey,
       kind: "cell",
-      title: cell.componentLabel ?? cell.faultKey,
+      title: cell.faultName,
       fault,
       share: causeShare(matched.lines, fault, undefined, settings.confidence),
       data: cell,
     }))
     // A cell is offered as a cause only when it was the fix of at least one matching line.
     .filter((c) => c.share.fromLines.fixed > 0);
-  const ranked = rankCauses<KnownIssueDetail | (typeof cells)[number]>([
+  const ranked = rankCauses<KnownIssueDetail | LookupCell>([
     ...issueCandidates,
     ...rankCauses(cellCandidates).slice(0, MAX_CELLS),
   ]);
 
-  const causes: CauseResult[] = ranked.map((c) => {
-    const success = fixSuccess(lines, c.fault, settings.window, req.codes, settings.confidence);
-    const cell =
-      c.kind === "cell" ? (c.data as (typeof cells)[number]) : componentCell(c.fault.component);
-    const cellOut = cell
-      ? {
-          events: cell.events,
-          exposureMi: cell.exposureMi,
-          rate: cell.rate,
-          rateLower: cell.rateLower,
-          rateUpper: cell.rateUpper,
-          isSignal: cell.isSignal,
-          hasTooLittleData: cell.hasTooLittleData,
-        }
-      : null;
+  // How often the fix held: a known issue's own figure (the one its page shows); for a computed
+  // pattern, the same definition over the cohort's failure lines.
+  const cohortFixLines = lines.map((l) => ({ ...l, kind: "failure" as const }));
+  const causes: CauseResult[] = [];
+  for (const c of ranked) {
+    const held =
+      c.kind === "known-issue"
+        ? await getKnownIssueFixHeld(db, scope, c.data as KnownIssueDetail)
+        : fixHeld(cohortFixLines, c.fault, settings);
+    const cellOut = c.kind === "cell" ? (c.data as LookupCell) : componentCell(c.fault.component);
     if (c.kind === "known-issue") {
       const d = c.data as KnownIssueDetail;
-      return {
+      causes.push({
         key: c.key,
         kind: c.kind,
         title: c.title,
@@ -434,16 +440,17 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
           })),
           source: "known-issue" as const,
         },
-        fixSuccess: success,
+        fixHeld: held,
         cautions: cautionsForWork(
           d.cautions.filter((k) => k.kind !== "other").map((k) => k.kind),
           vehicle,
         ).concat(d.cautions.filter((k) => k.kind === "other")),
         cell: cellOut,
-      };
+      });
+      continue;
     }
     const recorded = describeRecordedFix(lines.filter((l) => isFixOf(l, c.fault)));
-    return {
+    causes.push({
       key: c.key,
       kind: c.kind,
       title: c.title,
@@ -459,11 +466,11 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
         parts: recorded.parts.map((p) => ({ partNumber: p, quantity: 1, description: null })),
         source: "records" as const,
       },
-      fixSuccess: success,
+      fixHeld: held,
       cautions: cautionsForWork(cautionsForComponent(c.fault.component), vehicle),
       cell: cellOut,
-    };
-  });
+    });
+  }
 
   return {
     ...base,
@@ -476,6 +483,7 @@ export async function getLookup(db: Db, scope: OrgScope, req: LookupRequest) {
     matchedLines: matched.lines.length,
     isWidened: matched.isWidened,
     codeCells: cells.filter((c) => c.dtc !== null && req.codes.includes(c.dtc)),
+    cellConfidence,
     causes,
   };
 }

@@ -6,6 +6,9 @@ import { ensureCellView, hasViewFilter } from "./cell-views";
 import { ALL_FAULT_KEYS_SQL, cellSource } from "./cells";
 import { allFaultsKey, type AnalysedKind } from "@/lib/component-kinds";
 import { cautionsForComponent, cautionsForWork, isHighVoltageVehicle } from "@/lib/known-issues";
+import { PLACE_FIELDS, type HeatCell } from "@/lib/cell-types";
+import { faultName } from "@/lib/plain-words";
+import { faultNameOf, HEAT_COLUMNS, readCell, toHeatCell } from "./cell-rows";
 import { assertCan, type OrgScope } from "./scope";
 
 /** A fault filter: "P0441" (DTC), "fuel-vapour/purge-valve" (component) or "fuel-vapour" (system). */
@@ -17,30 +20,11 @@ export function faultKeyOf(fault: string): string {
   return `component:${f.toLowerCase()}`;
 }
 
-export type HeatCell = {
-  band: number;
-  bandFrom: number;
-  bandTo: number;
-  events: number;
-  exposureMi: number;
-  vehicles: number;
-  vehiclesAffected: number;
-  rate: number | null;
-  rateLower: number | null;
-  rateUpper: number | null;
-  ratio: number | null;
-  ratioLower: number | null;
-  ratioUpper: number | null;
-  share: number | null;
-  shareLower: number | null;
-  shareUpper: number | null;
-  qValue: number | null;
-  isSignal: boolean;
-  hasTooLittleData: boolean;
-};
+export type { HeatCell };
 
 export type HeatRow = {
   id: string;
+  /** The cohort ("Aurel Merlin M2") or the fault as people name it ("P0730 — …"). */
   label: string;
   make: string;
   model: string;
@@ -50,36 +34,6 @@ export type HeatRow = {
 };
 
 const n = (v: unknown) => (v === null || v === undefined ? null : Number(v));
-
-function toHeatCell(r: Record<string, unknown>): HeatCell {
-  return {
-    band: Number(r.band_index),
-    bandFrom: Number(r.band_from_mi),
-    bandTo: Number(r.band_to_mi),
-    events: Number(r.events),
-    exposureMi: Number(r.exposure_mi),
-    vehicles: Number(r.vehicles_at_risk),
-    vehiclesAffected: Number(r.vehicles_affected),
-    rate: n(r.rate_per_10k),
-    rateLower: n(r.rate_lower),
-    rateUpper: n(r.rate_upper),
-    ratio: n(r.rate_ratio),
-    ratioLower: n(r.ratio_lower),
-    ratioUpper: n(r.ratio_upper),
-    share: n(r.share_affected),
-    shareLower: n(r.share_lower),
-    shareUpper: n(r.share_upper),
-    qValue: n(r.q_value),
-    isSignal: Boolean(r.is_signal),
-    hasTooLittleData: Boolean(r.has_too_little_data),
-  };
-}
-
-const CELL_COLUMNS =
-  sql.raw(`c.make, c.model, c.cohort_label, c.fault_key, c.kind, c.band_index, c.band_from_mi, c.band_to_mi,
-  c.events, c.exposure_mi, c.vehicles_at_risk, c.vehicles_affected, c.rate_per_10k, c.rate_lower, c.rate_upper,
-  c.rate_ratio, c.ratio_lower, c.ratio_upper, c.share_affected, c.share_lower, c.share_upper, c.q_value,
-  c.is_signal, c.has_too_little_data`);
 
 export type HeatmapQuery = {
   /** "cohorts": rows are cohorts for one fault (or all faults); "faults": rows are faults of one cohort. */
@@ -124,7 +78,8 @@ export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
         group by c.fault_key order by sum(c.events) desc limit ${q.maxRows ?? 25})`);
   }
   const rows = await db.all<Record<string, unknown>>(sql`
-    select ${CELL_COLUMNS}, k.name as component_name, k.system as component_system, d.description as dtc_description
+    select ${HEAT_COLUMNS(source.confidence)}, k.name as component_name, k.system as component_system,
+           d.description as dtc_description
       from ${source.table} c
       left join components k on k.id = c.component_id
       left join dtc_codes d on d.code = c.dtc
@@ -133,32 +88,25 @@ export async function getHeatmap(db: Db, scope: OrgScope, q: HeatmapQuery) {
   const byRow = new Map<string, HeatRow>();
   const bands = new Map<number, { band: number; from: number; to: number }>();
   for (const r of rows) {
-    const generation = String(r.cohort_label);
-    const faultKey = String(r.fault_key);
-    const id = q.view === "cohorts" ? `${r.make}|${r.model}|${generation}` : faultKey;
-    const faultLabel = faultKey.startsWith("dtc:")
-      ? `${faultKey.slice(4)}${r.dtc_description ? ` ${String(r.dtc_description)}` : ""}`
-      : faultKey.startsWith("component:")
-        ? `${String(r.component_system ?? "")} → ${String(r.component_name ?? faultKey.slice(10))}`
-        : kind === "wear"
-          ? "All wear"
-          : "All faults";
+    const place = readCell(r, PLACE_FIELDS);
+    const generation = place.cohortLabel;
+    const id = q.view === "cohorts" ? `${place.make}|${place.model}|${generation}` : place.faultKey;
     let row = byRow.get(id);
     if (!row) {
       row = {
         id,
-        label: q.view === "cohorts" ? `${r.make} ${r.model} ${generation}` : faultLabel,
-        make: String(r.make),
-        model: String(r.model),
+        label: q.view === "cohorts" ? `${place.make} ${place.model} ${generation}` : faultNameOf(r),
+        make: place.make,
+        model: place.model,
         generation,
-        faultKey,
+        faultKey: place.faultKey,
         cells: [],
       };
       byRow.set(id, row);
     }
     const cell = toHeatCell(r);
     row.cells.push(cell);
-    bands.set(cell.band, { band: cell.band, from: cell.bandFrom, to: cell.bandTo });
+    bands.set(cell.bandIndex, { band: cell.bandIndex, from: cell.bandFromMi, to: cell.bandToMi });
   }
   return {
     rows: [...byRow.values()],
@@ -176,10 +124,13 @@ export async function getPatternOptions(db: Db, scope: OrgScope) {
     fault_key: string;
     kind: AnalysedKind;
     events: number;
-    label: string | null;
+    dtc: string | null;
+    dtc_description: string | null;
+    component_system: string | null;
+    component_name: string | null;
   }>(sql`
-    select c.fault_key, c.kind, sum(c.events) as events,
-           coalesce(d.description, k.system || ' → ' || k.name) as label
+    select c.fault_key, c.kind, sum(c.events) as events, c.dtc, d.description as dtc_description,
+           k.system as component_system, k.name as component_name
       from cell_stats c
       left join dtc_codes d on d.code = c.dtc
       left join components k on k.id = c.component_id
@@ -189,9 +140,15 @@ export async function getPatternOptions(db: Db, scope: OrgScope) {
     cohorts,
     faults: faults.map((f) => ({
       value: f.fault_key.replace(/^dtc:|^component:/, ""),
-      label: f.fault_key.startsWith("dtc:")
-        ? `${f.fault_key.slice(4)} ${f.label ?? ""}`.trim()
-        : (f.label ?? f.fault_key),
+      label: faultName({
+        dtc: f.dtc,
+        dtcDescription: f.dtc_description,
+        componentSystem: f.component_system,
+        componentName: f.component_name,
+        faultKey: f.fault_key,
+      }),
+      /** The component's system as people name it (a DTC has none). */
+      system: f.component_system,
       kind: f.kind,
       events: Number(f.events),
     })),
@@ -244,7 +201,7 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
       ? sql`(select w.run_id from cell_views w where w.id = c.view_id)`
       : sql`c.run_id`;
     const [row] = await db.all<Record<string, unknown>>(sql`
-      select ${CELL_COLUMNS}, r.band_width_mi, r.confidence_level, r.finished_at,
+      select ${HEAT_COLUMNS(sql`r.confidence_level`)}, r.band_width_mi, r.finished_at,
              k.name as component_name, k.system as component_system, d.description as dtc_description,
              coalesce(k.slug, dk.slug) as caution_slug
         from ${source.table} c join analysis_runs r on r.id = ${run}
@@ -338,13 +295,7 @@ export async function getCellDetail(db: Db, scope: OrgScope, key: CellKey) {
     v.repairs++;
     vehicles.set(id, v);
   }
-  const faultLabel = fk.startsWith("dtc:")
-    ? `${fk.slice(4)}${cellRow.dtc_description ? ` ${String(cellRow.dtc_description)}` : ""}`
-    : fk.startsWith("component:")
-      ? `${String(cellRow.component_system)} → ${String(cellRow.component_name)}`
-      : fk === "all:wear"
-        ? "All wear"
-        : "All faults";
+  const faultLabel = faultNameOf(cellRow);
   // The cautions of the work this fault leads to: its component's (a DTC's usual component), and
   // high voltage when any vehicle of the cohort is hybrid or electric.
   const cautions = cautionsForWork(

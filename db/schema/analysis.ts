@@ -97,6 +97,19 @@ export const cellStats = sqliteTable(
 );
 
 /**
+ * A computed cell as it is stored: the columns of `cell_stats` (and of `cell_view_stats`, which
+ * shares them) other than its id, its organisation and its run or view. The one type of a
+ * stored cell; the recompute writes it by column name, never by position.
+ */
+export type CellRecord = Omit<typeof cellStats.$inferInsert, "id" | "organisationId" | "runId">;
+
+/**
+ * A computed cell as it is read back (every column required, nullable ones null). Every query,
+ * route, page, export and the command line reads cells as this type or a Pick of it.
+ */
+export type StoredCell = Omit<typeof cellStats.$inferSelect, "id" | "organisationId" | "runId">;
+
+/**
  * How often the vehicles of a cohort need a scheduled-service component per mileage band (the
  * same columns as a cell, kind "service"): for the stocking planner only. Service is never a
  * failure pattern, so these are never tested, ranked or shown as cells.

@@ -3,7 +3,9 @@ import type { Db } from "@/db";
 import { getAtRiskVehicles } from "@/db/queries/at-risk";
 import { queueEmail } from "@/db/queries/email";
 import { listFaultNames } from "@/db/queries/reference";
-import { findComebacks } from "@/lib/comebacks";
+import { getFixHeldSettings, listFixLines } from "@/db/queries/fix-held";
+import { faultOfKey } from "@/lib/comeback-rates";
+import { comebacksOf, fixHeld, type FixLine } from "@/lib/fix-held";
 import { getConfiguredBaseUrl } from "@/lib/env";
 import { STATE_LABELS } from "@/lib/known-issues";
 import { buildDigestEmail, type Digest } from "@/lib/mail/digest-email";
@@ -38,11 +40,7 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
     id: number;
     name: string;
     distance_unit: "mi" | "km";
-    comeback_days: number;
-    comeback_distance: number;
-  }>(
-    sql`select id, name, distance_unit, comeback_days, comeback_distance from organisations where id = ${organisationId}`,
-  );
+  }>(sql`select id, name, distance_unit from organisations where id = ${organisationId}`);
   if (!org) throw new Error(`buildDigest: no organisation ${organisationId}`);
   const unit = org.distance_unit;
   const signals = await db.all<{
@@ -81,55 +79,72 @@ export async function buildDigest(db: Db, organisationId: number, since: Date): 
       from known_issue_states s join known_issues k on k.id = s.known_issue_id
      where s.organisation_id = ${organisationId} and s.from_state is not null and s.created_at >= ${sinceIso}
      order by s.created_at`);
-  // Comebacks whose second visit falls in the period, by fault (component, else first DTC), on
-  // failure lines only, as the comebacks screen counts them.
-  const lines = await db.all<{
-    id: number;
-    vehicle_id: number;
-    opened_on: string;
-    odometer_mi: number | null;
-    component_system: string | null;
-    component_name: string | null;
-    dtc: string | null;
-  }>(sql`
-    select l.id, l.vehicle_id, l.opened_on, l.odometer_mi,
-           k.system as component_system, k.name as component_name,
-           (select min(dtc) from visible_repair_line_codes c where c.repair_line_id = l.id) as dtc
+  // Comebacks whose second visit falls in the period, by fault (the line's component, else its
+  // first DTC), on failure lines only, paired and counted by lib/fix-held.ts as the comebacks
+  // screen pairs them; each fault with how often its fix held across the organisation (the
+  // figure the comebacks screen's per-fault row and a known issue of that fault show).
+  const sinceDay = sinceIso.slice(0, 10);
+  // Every failure line of the vehicles seen in the period: their comebacks can only pair these.
+  const seenRows = await db.all<Record<string, unknown>>(sql`
+    select l.id, l.vehicle_id, l.opened_on, l.odometer_mi, k.slug as component,
+           (select group_concat(c.dtc, ' ') from visible_repair_line_codes c
+             where c.repair_line_id = l.id) as codes
       from visible_repair_lines l left join components k on k.id = l.component_id
      where l.organisation_id = ${organisationId} and l.kind = 'failure'
-       and l.opened_on >= date(${sinceIso}, ${`-${org.comeback_days + 1} days`})`);
-  const dtcNames = await listFaultNames(
-    db,
-    lines.map((l) => ({ dtc: l.component_name ? null : l.dtc, component: null })),
-  );
-  const byFault = new Map<string, typeof lines>();
-  for (const l of lines) {
-    const fault = l.component_name
-      ? faultName({ componentSystem: l.component_system, componentName: l.component_name })
-      : l.dtc
-        ? (dtcNames.get(`dtc:${l.dtc}`) ?? l.dtc)
-        : null;
-    if (!fault) continue;
-    byFault.set(fault, [...(byFault.get(fault) ?? []), l]);
-  }
-  const window = { days: org.comeback_days, miles: unitToMiles(org.comeback_distance, unit) };
-  const sinceDay = sinceIso.slice(0, 10);
-  const comebacks = [...byFault.entries()]
-    .map(([fault, ls]) => ({
-      fault,
-      count: findComebacks(
-        ls.map((l) => ({
-          id: Number(l.id),
-          vehicleId: Number(l.vehicle_id),
-          openedOn: String(l.opened_on),
-          odometerMi: l.odometer_mi === null ? null : Number(l.odometer_mi),
-        })),
-        window,
-      ).filter((c) => c.again.openedOn >= sinceDay).length,
+       and l.vehicle_id in (select vehicle_id from visible_repair_lines
+                             where organisation_id = ${organisationId} and kind = 'failure'
+                               and opened_on >= ${sinceDay})`);
+  const seen: FixLine[] = seenRows.map((r) => ({
+    id: Number(r.id),
+    vehicleId: Number(r.vehicle_id),
+    openedOn: String(r.opened_on),
+    odometerMi: r.odometer_mi === null ? null : Number(r.odometer_mi),
+    kind: "failure",
+    componentSlug: r.component === null ? null : String(r.component),
+    codes: r.codes ? String(r.codes).split(" ").sort() : [],
+  }));
+  const faultKeys = [
+    ...new Set(
+      seen
+        .filter((l) => l.openedOn >= sinceDay)
+        .flatMap((l) =>
+          l.componentSlug
+            ? [`component:${l.componentSlug}`]
+            : l.codes[0]
+              ? [`dtc:${l.codes[0]}`]
+              : [],
+        ),
+    ),
+  ];
+  const scope = { organisationId, userId: null, role: "admin" as const };
+  const settings = await getFixHeldSettings(db, scope);
+  const top = faultKeys
+    .map((key) => ({
+      key,
+      count: comebacksOf(seen, faultOfKey(key), settings.window).filter(
+        (c) => c.again.openedOn >= sinceDay,
+      ).length,
     }))
     .filter((c) => c.count > 0)
-    .sort((a, b) => b.count - a.count)
+    .sort((a, b) => b.count - a.count || a.key.localeCompare(b.key))
     .slice(0, 5);
+  const names = await listFaultNames(
+    db,
+    top.map(({ key }) => {
+      const f = faultOfKey(key);
+      return { dtc: f.dtcs[0] ?? null, component: f.component };
+    }),
+  );
+  const comebacks: Digest["comebacks"] = [];
+  for (const { key, count } of top) {
+    const fault = faultOfKey(key);
+    const lines = await listFixLines(db, scope, { cohorts: "all", fault });
+    comebacks.push({
+      fault: names.get(key) ?? key,
+      count,
+      fixHeld: fixHeld(lines, fault, settings),
+    });
+  }
   const { rows, confidence } = await getAtRiskVehicles(
     db,
     { organisationId, userId: null, role: "admin" },

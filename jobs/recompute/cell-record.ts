@@ -1,14 +1,11 @@
 import { getTableColumns } from "drizzle-orm";
-import { cellStats } from "@/db/schema";
+import { cellStats, type CellRecord } from "@/db/schema";
 import type { SqlValue } from "../import/sql-literal";
 import type { CellStat } from "./cells";
 
-/**
- * A computed cell as it is stored: the columns of `cell_stats` (and of `cell_view_stats`, which
- * shares them) other than its id, its organisation and its run or view. The one type of a
- * stored cell; the recompute writes it by column name, never by position.
- */
-export type CellRecord = Omit<typeof cellStats.$inferInsert, "id" | "organisationId" | "runId">;
+// The stored cell's type lives with its table (db/schema/analysis.ts), where the data layer
+// reads it too.
+export type { CellRecord };
 
 /** The stored form of a computed cell. */
 export function toCellRecord(c: CellStat): Required<CellRecord> {

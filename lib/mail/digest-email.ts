@@ -1,5 +1,6 @@
 import escapeHtml from "escape-html";
 import { AT_RISK_HORIZON } from "@/lib/at-risk";
+import { describeFixHeldShare, type FixHeld } from "@/lib/fix-held";
 import { countOf, describeOutlook, describeRatio, formatConfidence } from "@/lib/plain-words";
 
 /** What the weekly digest says (jobs/digest/digest.ts buildDigest gathers it). */
@@ -19,8 +20,11 @@ export type Digest = {
     ratioUpper: number | null;
   }[];
   stateChanges: { title: string; from: string; to: string; reason: string; at: string }[];
-  /** Faults by name, with the vehicles that came back for them. */
-  comebacks: { fault: string; count: number }[];
+  /**
+   * Faults by name, with the vehicles that came back for them in the period and how often the
+   * fault's fix held across the organisation (lib/fix-held.ts; null: no repair counted).
+   */
+  comebacks: { fault: string; count: number; fixHeld: FixHeld | null }[];
   /** Expected failures over the horizon, with their range at `confidence` (null: none yet). */
   atRisk: {
     vehicle: string;
@@ -65,7 +69,11 @@ export function buildDigestEmail(
     {
       title: "Top comebacks",
       empty: "No comebacks.",
-      items: d.comebacks.map((c) => `${c.fault}: ${countOf(c.count, "vehicle")} back`),
+      items: d.comebacks.map(
+        (c) =>
+          `${c.fault}: ${countOf(c.count, "vehicle")} back` +
+          (c.fixHeld ? `; overall, ${describeFixHeldShare(c.fixHeld)}` : ""),
+      ),
     },
     {
       title: `Vehicles most at risk over their next ${AT_RISK_HORIZON.toLocaleString("en-GB")} ${unit}`,

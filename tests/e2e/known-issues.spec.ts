@@ -59,7 +59,9 @@ test("the manager confirms a known issue with a reason; watchers are e-mailed; h
     .click();
   await expect(page.getByTestId("cautions")).toContainText("Electrical");
   await expect(page.getByRole("note")).toContainText("Manufacturer procedures");
-  await expect(page.getByTestId("fix-success")).toContainText(/% of \d+ repairs/);
+  await expect(page.getByTestId("fix-success")).toContainText(
+    /The fix held in \d+ of \d+ repairs \(\d+(\.\d)?%\), likely between/,
+  );
   await screenshot(page, "known-issue-detail");
 
   const stateForm = page.getByRole("form", { name: "Change state" });

@@ -47,13 +47,21 @@ test("technician: a Kestrel K2 with P0496 gets the purge valve first, prints one
   await expect(first.getByRole("heading", { level: 3 })).toContainText(
     "Stalls just after refuelling: purge valve sticking open",
   );
-  await expect(first.getByTestId("cause-share")).toContainText(/Was the cause in \d+ of \d+/);
+  // In words first: count of its denominator, the share, and its likely range.
+  await expect(first.getByTestId("cause-share")).toContainText(
+    /Was the cause in \d+ of \d+ cases \(\d+(\.\d)?%\), likely between \d/,
+  );
   await expect(first.getByTestId("checks").getByRole("listitem")).toHaveCount(5);
   await expect(first.getByTestId("checks").getByRole("listitem").first()).toContainText(
     "within a few miles of a fill-up",
   );
   await expect(first.getByTestId("cautions")).toContainText("Fuel vapour");
-  await expect(first.getByTestId("fix-success")).toContainText(/Fix held in \d+ of \d+/);
+  await expect(first.getByTestId("fix-success")).toContainText(
+    /The fix held in \d+ of \d+ repairs \(\d+(\.\d)?%\), likely between .*; \d+ came back within \d+ days or [\d,]+ mi/,
+  );
+  // The codes by their names, never ∞ or an exponent in the figures.
+  await expect(page.getByTestId("codes")).toContainText("P0496 — ");
+  await expect(page.getByTestId("causes")).not.toContainText(/∞|\de-\d/);
   await expect(page.getByRole("note")).toContainText(
     "Manufacturer procedures, local codes and licensed practice come first",
   );

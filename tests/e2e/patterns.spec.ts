@@ -1,6 +1,14 @@
 import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "@playwright/test";
-import { expect, openTopRankedCell, screenshot, signIn, test } from "./support";
+import {
+  expect,
+  heatmapOf,
+  hoverCell,
+  openTopRankedCell,
+  screenshot,
+  signIn,
+  test,
+} from "./support";
 
 /** Serious and critical accessibility problems found by axe-core on the current page. */
 async function seriousViolations(page: Page) {
@@ -8,28 +16,6 @@ async function seriousViolations(page: Page) {
   return result.violations
     .filter((v) => v.impact === "serious" || v.impact === "critical")
     .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
-}
-
-/**
- * The explorer's heatmap, found through its titled region: the bare test id once matched two
- * elements on the second web node of a server run (CI, 2026-12-03; cause not found), and the
- * region's accessible name picks the one on screen.
- */
-const heatmapOf = (page: Page) =>
-  page.getByRole("region", { name: /× mileage bands/ }).getByTestId("heatmap");
-
-/** Hovers the heatmap cell at a row label and a column label. */
-async function hoverCell(page: Page, rowLabel: string, columnLabel: string) {
-  const map = heatmapOf(page);
-  const rowText = map.locator("text", { hasText: new RegExp(`^${rowLabel}$`) }).first();
-  await rowText.scrollIntoViewIfNeeded();
-  const row = await rowText.boundingBox();
-  const column = await map
-    .locator("text", { hasText: new RegExp(`^${columnLabel}$`) })
-    .first()
-    .boundingBox();
-  if (!row || !column) throw new Error("heatmap labels not found");
-  await page.mouse.move(column.x + column.width / 2, row.y + row.height / 2);
 }
 
 /** Opens the drill-down of the top-ranked cell of one fault. */
@@ -109,7 +95,7 @@ test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-d
   const ranked = page.getByRole("table", { name: /Recurring failures ranked/ });
   const first = ranked.getByRole("row").nth(1);
   await expect(first).toContainText(/Aurel (Merlin M2|Kestrel K3)/);
-  await expect(first.getByText("signal")).toBeVisible();
+  await expect(first.getByText("signal", { exact: true })).toBeVisible();
   await screenshot(page, "patterns-explorer");
 
   // The same pattern as a strong, certain cell: the top colour of the ratio scale.
@@ -118,9 +104,15 @@ test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-d
   await hoverCell(page, "Aurel Merlin M2", "150k–175k");
   const tooltip = page.getByRole("tooltip");
   await expect(tooltip).toContainText("Aurel Merlin M2");
-  await expect(tooltip.getByTestId("tooltip-interval")).toHaveText(/^\d[\d.,]*–(∞|\d)/);
-  await expect(tooltip).toContainText("exact conditional");
+  // In words first, then the interval named by its level, and the method; never ∞.
+  await expect(tooltip.getByTestId("tooltip-sentence")).toContainText("the rest of the fleet");
+  await expect(tooltip.getByTestId("tooltip-interval")).toHaveText(
+    /^\d[\d.,]* to (no upper limit|\d[\d.,]*)$/,
+  );
+  await expect(tooltip).toContainText(/\d+% interval/);
+  await expect(tooltip).toContainText("Exact conditional test against the rest of the fleet");
   await expect(tooltip).toContainText("Signal");
+  await expect(tooltip).not.toContainText("∞");
   await screenshot(page, "patterns-heatmap-tooltip");
 
   // A sparse cell shows as uncertain ("too little data"), never as a zero.
@@ -153,8 +145,10 @@ test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-d
     .replace(/^\uFEFF/, "")
     .trim()
     .split("\r\n");
+  // The first export's columns, unchanged, then the figures as the screens show them.
   expect(lines[0]).toBe(
-    "make,model,generation,yearFrom,yearTo,bandFrom,bandTo,dtc,component,events,exposureMiles,vehicles,vehiclesAffected,rate,rateLower,rateUpper,ratio,ratioLower,ratioUpper,pValue,qValue,shrunkRate,signal",
+    "make,model,generation,yearFrom,yearTo,bandFrom,bandTo,dtc,component,events,exposureMiles,vehicles,vehiclesAffected,rate,rateLower,rateUpper,ratio,ratioLower,ratioUpper,pValue,qValue,shrunkRate,signal," +
+      "kind,faultName,shareAffected,shareLower,shareUpper,shrunkRateLower,shrunkRateUpper,distanceUnit,confidence,rateInWords,ratioInWords,shareInWords,steadyRateInWords",
   );
   expect(lines.length).toBeGreaterThan(1);
   expect(lines.slice(1).every((l) => l.startsWith("Brindle,"))).toBe(true);
@@ -162,9 +156,10 @@ test("a manager explores patterns: ranking, heatmap, filters in the URL, drill-d
   // Drill down from the ranked list.
   await openTopDrillDown(page, "P0730");
   await expect(page).toHaveURL(/\/patterns\/cell\?/);
-  await expect(page.getByTestId("cell-sentence")).toContainText(
-    /repairs per 10,000 mi, 95% [\d.]+–[\d.]+/,
+  await expect(page.getByTestId("cell-sentence")).toHaveText(
+    /^\d+ repairs in [\d,]+ mi driven: about [\d.,]+ per 10,000 mi, likely between [\d.,]+ and [\d.,]+; .*the rest of the fleet/,
   );
+  await expect(page.getByTestId("cell-sentence")).not.toContainText("∞");
   await expect(
     page
       .getByRole("region", { name: /Recurrence over mileage/ })
@@ -223,4 +218,48 @@ test("the explorer and the drill-down have no serious accessibility problems (ax
   await openTopRankedCell(page);
   await expect(page.getByTestId("cell-sentence")).toBeVisible();
   expect(await seriousViolations(page)).toEqual([]);
+});
+
+test("the wear switch shows wear cells, marked Wear and worded as wearing out sooner", async ({
+  page,
+}) => {
+  await signIn(page, "manager");
+  await page.goto("/patterns");
+  // Failures are the default view.
+  await expect(page.getByRole("heading", { name: "Recurring failures, ranked" })).toBeVisible();
+  await expect(page.getByRole("radio", { name: /^Failures/ })).toBeChecked();
+  // A controlled choice: it shows as chosen once the address has changed.
+  await page.getByRole("radio", { name: /^Wear/ }).click();
+  await expect(page.getByRole("radio", { name: /^Wear/ })).toBeChecked();
+  await expect(page).toHaveURL(/kind=wear/);
+  await expect(page.getByRole("heading", { name: "Early wear, ranked" })).toBeVisible();
+  await expect(
+    page.getByRole("heading", { level: 2, name: /^Wear: cohorts × mileage bands, all wear/ }),
+  ).toBeVisible();
+  const ranked = page.getByRole("table", { name: /Early wear ranked/ });
+  const first = ranked.getByRole("row").nth(1);
+  await expect(first.getByTestId("wear-badge")).toHaveText("Wear");
+  await expect(
+    ranked.getByRole("columnheader", { name: /^Wear repairs per 10,000 mi/ }),
+  ).toBeVisible();
+  await screenshot(page, "patterns-wear");
+  // The API answers wear cells only when asked, and failures otherwise.
+  const wear = (await (await page.request.get("/api/cells?kind=wear&limit=50")).json()) as {
+    cells: { kind: string }[];
+  };
+  expect(wear.cells.length).toBeGreaterThan(0);
+  expect(wear.cells.every((c) => c.kind === "wear")).toBe(true);
+  const failures = (await (await page.request.get("/api/cells?limit=50")).json()) as {
+    cells: { kind: string }[];
+  };
+  expect(failures.cells.every((c) => c.kind === "failure")).toBe(true);
+  // Its drill-down says it is wear, and compares how soon it wears out.
+  await first.getByRole("link").click();
+  await expect(page).toHaveURL(/\/patterns\/cell\?/);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(/^Wear: /);
+  await expect(page.getByTestId("wear-badge").first()).toBeVisible();
+  await expect(page.getByTestId("cell-sentence")).toContainText(/wear repairs? in .*wear out/);
+  // Back to the cohort's wear, still in the wear view.
+  await page.getByRole("link", { name: "← This cohort's wear" }).click();
+  await expect(page).toHaveURL(/kind=wear/);
 });

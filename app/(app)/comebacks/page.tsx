@@ -267,7 +267,7 @@ export default async function ComebacksPage({ searchParams }: { searchParams: Pa
             ? "For coaching: compare a technician with the shop on the same kind of job, and read the interval before the rate. "
             : ""}
           {q.view === "fault"
-            ? "Per fault, a repair counts as come back when that same fault returned. "
+            ? "Per fault, a repair counts as come back when that same fault returned; the fix held in the rest (the figure a known issue of that fault shows). "
             : "A repair counts as come back when any of its faults returned. "}
           Repairs with no DTC and no component ({r.noFault}) cannot be matched and are left out.
         </p>

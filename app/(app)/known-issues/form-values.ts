@@ -14,7 +14,9 @@ import type {
   KnownIssueFormChoices,
   KnownIssueFormValues,
 } from "@/components/known-issues/known-issue-form";
-import { formatBand, formatInterval, formatSig, ratePerTenThousand } from "@/lib/format";
+import { formatBand } from "@/lib/format";
+import { describeCell, sentence, SHARE } from "@/lib/metrics";
+import { formatPlain, formatProbability, formatRange } from "@/lib/plain-words";
 import { CAUTIONS, cautionsForComponent, SYMPTOM_LABELS } from "@/lib/known-issues";
 import { milesToUnit, unitToMiles } from "@/lib/units";
 import { CAUTION_KINDS } from "@/db/schema/known-issues";
@@ -131,14 +133,11 @@ export async function valuesFromCell(
     (g) => g.make === key.make && g.model === key.model && g.label === key.generation,
   );
   const signal = await findSignalOfCell(db, scope, { ...key, faultKey: fk });
-  const band = formatBand(c.bandFrom, c.bandTo, unit);
+  const band = formatBand(c.bandFromMi, c.bandToMi, unit);
+  const ctx = { unit, confidence: detail.confidenceLevel };
   const evidence =
     `Started from the cell ${key.make} ${key.model} ${key.generation}, ${band}, ${detail.faultLabel}: ` +
-    `${c.events} repairs in ${formatSig(milesToUnit(c.exposureMi, unit))} ${unit} of driving by ${c.vehicles} vehicles, ` +
-    `${formatSig(ratePerTenThousand(c.rate, unit))} per 10,000 ${unit} (95% ${formatInterval(ratePerTenThousand(c.rateLower, unit), ratePerTenThousand(c.rateUpper, unit))})` +
-    (c.ratio !== null
-      ? `, ${formatSig(c.ratio)}× the rest of the fleet (95% ${formatInterval(c.ratioLower, c.ratioUpper)}).`
-      : ".");
+    `${describeCell(c, ctx)} ${sentence(SHARE.describe(c, ctx))}.`;
   return {
     ...EMPTY,
     title: `${detail.faultLabel} on ${key.make} ${key.model} ${key.generation}, ${band}`.slice(
@@ -146,8 +145,8 @@ export async function valuesFromCell(
       160,
     ),
     summary: evidence,
-    mileageFrom: whole(c.bandFrom, unit),
-    mileageTo: whole(c.bandTo, unit),
+    mileageFrom: whole(c.bandFromMi, unit),
+    mileageTo: whole(c.bandToMi, unit),
     dtcCodes: dtc,
     componentSlug: fk.startsWith("component:") ? fk.slice(10) : "",
     signalId: signal?.id,
@@ -183,8 +182,9 @@ export async function valuesFromRefuel(
   const what = symptoms.map((s) => SYMPTOM_LABELS[s].toLowerCase()).join("s and ") + "s";
   const summary =
     `Started from the refuel analysis: ${c.observed} of ${c.events} ${what} on ${c.make} ${c.model} ${c.generation} ` +
-    `came within ${key.window} ${unit} of a fill-up, where chance predicts ${formatSig(c.expected)} ` +
-    `(${formatSig(c.ratio)}×, 95% ${formatInterval(c.lower, c.upper)}, one-sided p ${formatSig(c.pValue, 2)}; ` +
+    `came within ${key.window} ${unit} of a fill-up, where chance predicts ${formatPlain(c.expected)} ` +
+    // The refuel test's interval is always 95% (lib/stats/refuel-window-test.ts).
+    `(about ${formatPlain(c.ratio)} times chance, 95% interval ${formatRange(c.lower, c.upper)}, one-sided p ${formatProbability(c.pValue)}; ` +
     `${c.noFuelData} events had no fuel data).`;
   return {
     ...EMPTY,

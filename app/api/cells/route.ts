@@ -4,37 +4,12 @@ import { ensureCellView } from "@/db/queries/cell-views";
 import { getLatestRun, listRankedCells } from "@/db/queries/cells";
 import { apiRoute, jsonError } from "@/lib/auth/guard";
 import { CellQuery } from "@/lib/cell-request";
+import { CELL_CSV_HEADER, cellCsvRow } from "@/lib/cell-csv";
 import { toCsv } from "@/lib/import";
 
 export const dynamic = "force-dynamic";
 
 const Format = z.object({ format: z.enum(["json", "csv"]).default("json") });
-
-const CSV_COLUMNS = [
-  "make",
-  "model",
-  "generation",
-  "yearFrom",
-  "yearTo",
-  "bandFrom",
-  "bandTo",
-  "dtc",
-  "component",
-  "events",
-  "exposureMiles",
-  "vehicles",
-  "vehiclesAffected",
-  "rate",
-  "rateLower",
-  "rateUpper",
-  "ratio",
-  "ratioLower",
-  "ratioUpper",
-  "pValue",
-  "qValue",
-  "shrunkRate",
-  "signal",
-] as const;
 
 /**
  * Cells of the latest analysis run, ranked by the lower bound of the rate ratio (or another
@@ -66,6 +41,7 @@ export const GET = apiRoute("patterns:read", async (req, auth) => {
     generation: q.data.generation,
     bandFromMi: q.data.bandFrom,
     bandToMi: q.data.bandTo,
+    kind: q.data.kind,
     viewId,
     isSignalOnly: q.data.signals,
     sort: q.data.sort,
@@ -74,10 +50,15 @@ export const GET = apiRoute("patterns:read", async (req, auth) => {
     limit: isCsv ? 100_000 : q.data.limit,
     offset: isCsv ? 0 : q.data.offset,
   });
+  const run = await getLatestRun(db, auth);
   if (isCsv) {
+    const ctx = {
+      unit: auth.organisation.distanceUnit,
+      confidence: run?.confidenceLevel ?? 0.95,
+    };
     const body = toCsv(
-      CSV_COLUMNS,
-      cells.map((c) => CSV_COLUMNS.map((k) => c[k])),
+      CELL_CSV_HEADER,
+      cells.map((c) => cellCsvRow(c, ctx)),
       { withBom: true },
     );
     return new Response(body, {
@@ -87,5 +68,5 @@ export const GET = apiRoute("patterns:read", async (req, auth) => {
       },
     });
   }
-  return Response.json({ run: await getLatestRun(db, auth), total, cells });
+  return Response.json({ run, total, cells });
 });

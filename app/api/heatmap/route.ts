@@ -26,6 +26,7 @@ export const GET = apiRoute("patterns:read", async (req, auth) => {
     generation: q.data.generation,
     bandFromMi: q.data.bandFrom,
     bandToMi: q.data.bandTo,
+    kind: q.data.kind,
     viewId,
   });
   return Response.json({ run: await getLatestRun(db, auth), ...heatmap });

@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import { beforeAll, describe, expect, test } from "vitest";
 import type { Db } from "@/db";
+import { getKnownIssueFixHeld } from "@/db/queries/fix-held";
 import { getKnownIssueEvidence } from "@/db/queries/known-issue-evidence";
 import {
   addKnownIssueComment,
@@ -127,18 +128,19 @@ describe("the demo's known issues", () => {
     expect(await getKnownIssue(db, scope.tidewater!, purge.id)).toBeNull();
   });
 
-  test("live evidence: cells, affected vehicles and the fix's comeback rate", async () => {
+  test("live evidence: cells, affected vehicles, and how often the fix held", async () => {
     const north = await listKnownIssues(db, scope.shopManager!);
     const purge = north.find((k) => k.title.startsWith("Stalls just after"))!;
     const detail = (await getKnownIssue(db, scope.shopManager!, purge.id))!;
     const ev = await getKnownIssueEvidence(db, scope.shopManager!, detail);
     expect(ev.cells.length).toBeGreaterThan(0);
-    expect(ev.cells.every((c) => c.model === "Kestrel" && c.generation === "K2")).toBe(true);
+    expect(ev.cells.every((c) => c.model === "Kestrel" && c.cohortLabel === "K2")).toBe(true);
     expect(ev.affected.length).toBeGreaterThan(0);
     // The planted pattern's first repair often misses: comebacks exist, and the interval holds them.
-    const cb = ev.comebackRate!;
+    const cb = (await getKnownIssueFixHeld(db, scope.shopManager!, detail))!;
     expect(cb.fixes).toBeGreaterThan(0);
     expect(cb.comebacks).toBeGreaterThan(0);
+    expect(cb.held).toBe(cb.fixes - cb.comebacks);
     expect(cb.lower).toBeLessThanOrEqual(cb.estimate);
     expect(cb.upper).toBeGreaterThanOrEqual(cb.estimate);
     // Affected counts match an independent count of vehicles with a fixing repair.

@@ -1,7 +1,8 @@
 import { sql } from "drizzle-orm";
 import { beforeAll, describe, expect, test } from "vitest";
 import type { Db } from "@/db";
-import { changeKnownIssueState, listKnownIssues } from "@/db/queries/known-issues";
+import { getFixHeld, getKnownIssueFixHeld } from "@/db/queries/fix-held";
+import { changeKnownIssueState, getKnownIssue, listKnownIssues } from "@/db/queries/known-issues";
 import { getLookup, recordFinding } from "@/db/queries/lookup";
 import { ForbiddenError, NotFoundError, type OrgScope } from "@/db/queries/scope";
 import { findOrganisationBySlug } from "@/db/queries/system";
@@ -79,7 +80,7 @@ describe("the lookup on the demo", () => {
     expect(first.cautions.map((c) => c.kind)).toContain("fuel-vapour");
     expect(first.share.trials).toBe(r.matchedLines);
     expect(first.share.successes).toBeGreaterThan(first.share.trials / 2);
-    expect(first.fixSuccess!.fixes).toBeGreaterThan(0);
+    expect(first.fixHeld!.fixes).toBeGreaterThan(0);
     // The known issue absorbs the purge-valve cell: the fault is not listed twice.
     expect(r.causes.filter((c) => c.component?.slug === "fuel-vapour/purge-valve")).toHaveLength(1);
     // Ranked by the Wilson lower bound, best first.
@@ -94,6 +95,59 @@ describe("the lookup on the demo", () => {
          and exists (select 1 from repair_line_codes c where c.repair_line_id = l.id and c.dtc = 'P0496')
          ${r.isWidened ? sql`` : sql`and l.odometer_mi >= ${r.band!.fromMi} and l.odometer_mi < ${r.band!.toMi}`}`);
     expect(first.share.fromLines).toEqual({ fixed: Number(n!.fixed), of: Number(n!.n) });
+  });
+
+  test("how often the fix held: the lookup shows the known issue's own figure, as its page does", async () => {
+    const r = await getLookup(db, scope.technician!, {
+      vin: k2.vin,
+      odometer: k2.odometer,
+      codes: ["P0496"],
+      symptom: null,
+    });
+    if (!r.found) throw new Error("the K2 is on file");
+    const inLookup = r.causes.find((c) => c.knownIssue?.id === purgeId)!.fixHeld!;
+    // The known issue's page reads its figure with getKnownIssueFixHeld.
+    const detail = (await getKnownIssue(db, scope.shopManager!, purgeId))!;
+    const onPage = (await getKnownIssueFixHeld(db, scope.shopManager!, detail))!;
+    expect({ held: inLookup.held, fixes: inLookup.fixes }).toEqual({
+      held: onPage.held,
+      fixes: onPage.fixes,
+    });
+    expect(inLookup).toEqual(onPage);
+    // An independent count of the repairs: failure lines of the purge valve or of the issue's
+    // codes in its cohorts, one per vehicle and day.
+    const cohorts = sql.join(
+      detail.cohorts.map((c) =>
+        c.generationId === null
+          ? sql`(v.make = ${c.make} and v.model = ${c.model})`
+          : sql`(v.make = ${c.make} and v.model = ${c.model} and v.generation_id = ${c.generationId})`,
+      ),
+      sql` or `,
+    );
+    const [n] = await db.all<{ n: number }>(sql`
+      select count(distinct l.vehicle_id || '|' || l.opened_on) as n
+        from repair_lines l join vehicles v on v.id = l.vehicle_id
+        left join components k on k.id = l.component_id
+       where l.organisation_id = ${scope.technician!.organisationId} and l.kind = 'failure'
+         and (${cohorts})
+         and (k.slug = ${detail.component!.slug} or exists (select 1 from repair_line_codes c
+              where c.repair_line_id = l.id and c.dtc in (${sql.join(
+                detail.dtcCodes.map((d) => sql`${d}`),
+                sql`, `,
+              )})))`);
+    // Every repair is counted once: its window passed (fixes) or not yet (stillOpen).
+    expect(onPage.fixes + onPage.stillOpen).toBe(Number(n!.n));
+    expect(onPage.held).toBe(onPage.fixes - onPage.comebacks);
+    expect(onPage.held).toBeLessThan(onPage.fixes);
+    // A computed pattern: the same definition over the vehicle's cohort.
+    const pattern = r.causes.find((c) => c.kind === "cell" && c.fixHeld !== null);
+    if (pattern) {
+      const own = await getFixHeld(db, scope.technician!, {
+        cohorts: [{ make: "Aurel", model: "Kestrel", generationId: r.vehicle.generationId }],
+        fault: { component: pattern.component!.slug, dtcs: [] },
+      });
+      expect(pattern.fixHeld).toEqual(own);
+    }
   });
 
   test("a VIN not in the organisation is not found (and nothing is ranked)", async () => {

@@ -50,10 +50,10 @@ describe("getHeatmap", () => {
     // Bands are the union of the rows' bands, in order, each once.
     const bandIds = map.bands.map((b) => b.band);
     expect(bandIds).toEqual([...new Set(bandIds)].sort((a, b) => a - b));
-    for (const c of cells) expect(bandIds).toContain(c.band);
+    for (const c of cells) expect(bandIds).toContain(c.bandIndex);
     // The planted Merlin M2 shift pattern is a signal in some band past 75,000 mi.
     const m2 = map.rows.find((r) => r.label === "Aurel Merlin M2");
-    expect(m2?.cells.some((c) => c.isSignal && c.bandFrom >= 75_000)).toBe(true);
+    expect(m2?.cells.some((c) => c.isSignal && c.bandFromMi >= 75_000)).toBe(true);
   });
 
   test("a too-little-data cell keeps its flag (the screen shows it as n/a, not zero)", async () => {
@@ -87,7 +87,7 @@ describe("getHeatmap", () => {
     const cells = map.rows.flatMap((r) => r.cells);
     expect(cells.length).toBeGreaterThan(0);
     expect(map.rows.every((r) => r.make === "Brindle")).toBe(true);
-    expect(cells.every((c) => c.bandTo > 50_000 && c.bandFrom < 100_000)).toBe(true);
+    expect(cells.every((c) => c.bandToMi > 50_000 && c.bandFromMi < 100_000)).toBe(true);
   });
 
   test("another organisation's cells never show", async () => {
@@ -126,7 +126,7 @@ describe("getCellDetail", () => {
       make: "Aurel",
       model: "Kestrel",
       generation: "K2",
-      band: cell.band,
+      band: cell.bandIndex,
       fault: "P0496",
     };
     const detail = await getCellDetail(db, tide, key);
@@ -154,7 +154,7 @@ describe("getCellDetail", () => {
       make: "Aurel",
       model: "Merlin",
       generation: "M2",
-      band: cell.band,
+      band: cell.bandIndex,
       fault: "P0730",
     });
     expect(detail).not.toBeNull();
@@ -166,8 +166,8 @@ describe("getCellDetail", () => {
     expect(d.totals.costCents).toBe(d.lines.reduce((s, l) => s + l.costCents, 0));
     for (const l of d.lines) {
       expect(l.dtcCodes).toContain("P0730");
-      expect(l.odometerMi).toBeGreaterThanOrEqual(cell.bandFrom);
-      expect(l.odometerMi).toBeLessThan(cell.bandTo);
+      expect(l.odometerMi).toBeGreaterThanOrEqual(cell.bandFromMi);
+      expect(l.odometerMi).toBeLessThan(cell.bandToMi);
     }
     // The MCF is a non-decreasing step function with its limits around it.
     const points = d.mcf.points;
@@ -200,7 +200,7 @@ describe("getCellDetail", () => {
     const map = await getHeatmap(db, tide, { view: "cohorts", fault: "P0730", viewId });
     const viewCell = map.rows
       .find((r) => r.label === "Aurel Merlin M2")!
-      .cells.find((c) => c.band === 6);
+      .cells.find((c) => c.bandIndex === 6);
     expect(later.cell).toEqual(viewCell);
     expect(later.cell.events).toBe(later.lines.length);
     expect(later.cell.exposureMi).toBeLessThan(all.cell.exposureMi);

@@ -4,7 +4,6 @@ import {
   causeShare,
   compareCauses,
   describeRecordedFix,
-  fixSuccess,
   isFixOf,
   LookupQuery,
   walkInOf,
@@ -214,37 +213,7 @@ describe("a known issue absorbs the cell of its fault", () => {
   });
 });
 
-describe("how often the fix held (comebacks, lib/comebacks.ts)", () => {
-  const window = { days: 30, miles: 3000 };
-  test("a fix followed by the same fault within the window did not hold", () => {
-    const lines = [
-      // Vehicle 1: cap swapped, back in 10 days with the code, then the purge valve: held.
-      line({
-        vehicleId: 1,
-        openedOn: "2024-01-01",
-        componentSlug: CAP.component,
-        codes: ["P0496"],
-      }),
-      line({
-        vehicleId: 1,
-        openedOn: "2024-01-11",
-        componentSlug: PURGE.component,
-        codes: ["P0496"],
-      }),
-      // Vehicle 2: purge valve, back in 5 days for a purge valve again: did not hold; then held.
-      line({ vehicleId: 2, openedOn: "2024-02-01", componentSlug: PURGE.component }),
-      line({ vehicleId: 2, openedOn: "2024-02-06", componentSlug: PURGE.component }),
-      // Vehicle 3: purge valve, an unrelated repair a week later: held.
-      line({ vehicleId: 3, openedOn: "2024-03-01", componentSlug: PURGE.component }),
-      line({ vehicleId: 3, openedOn: "2024-03-08", componentSlug: "brakes/front-pads" }),
-    ];
-    const s = fixSuccess(lines, PURGE, window)!;
-    expect(s).toMatchObject({ fixes: 4, comebacks: 1, held: 3, estimate: 0.75 });
-    expect(s.lower).toBeCloseTo(wilsonInterval(3, 4).lower, 12);
-    // The filler cap (no DTCs of its own) is judged with the entered code as the same concern.
-    expect(fixSuccess(lines, CAP, window, ["P0496"])).toMatchObject({ fixes: 1, held: 0 });
-    expect(fixSuccess(lines, { component: "x/none", dtcs: [] }, window)).toBeNull();
-  });
+describe("the recorded fix", () => {
   test("the recorded fix of a bare cell: median hours, common parts and correction", () => {
     const f = describeRecordedFix([
       line({ laborHours: 0.7, partNumbers: "PV-1", correction: "Replaced valve" }),

@@ -7,6 +7,7 @@ import {
   describeRate,
   describeRatio,
   describeShare,
+  describeWearRatio,
   faultName,
   formatConfidence,
   formatPercent,
@@ -190,5 +191,23 @@ describe("plain words for figures", () => {
     expect(rows["q (false-discovery rate)"]).toBe("below 0.0001");
     expect(rows.Method).toMatch(/Garwood.*Benjamini–Hochberg/);
     expect(JSON.stringify(rows)).not.toMatch(/e-\d|∞/);
+  });
+
+  test("wear reads as wearing out sooner (or later) than on the rest of the fleet, without ∞", () => {
+    expect(describeWearRatio({ ratio: 2.1, lower: 1.4, upper: 3.2, events: 20 })).toBe(
+      "wears out sooner than on the rest of the fleet: about 2.1 times as often, at least 1.4 times",
+    );
+    expect(describeWearRatio({ ratio: 0.5, lower: 0.3, upper: 0.8, events: 9 })).toBe(
+      "wears out later than on the rest of the fleet: about half as often, at most 0.8 times",
+    );
+    expect(describeWearRatio({ ratio: 1.2, lower: 0.8, upper: 1.9, events: 9 })).toBe(
+      "may wear out sooner than on the rest of the fleet: about 1.2 times as often, but it could be chance (likely between 0.8 and 1.9 times)",
+    );
+    expect(describeWearRatio({ ratio: 1.02, lower: 0.7, upper: 1.5, events: 9 })).toBe(
+      "wears out about as often as on the rest of the fleet (likely between 0.7 and 1.5 times)",
+    );
+    expect(describeWearRatio({ ratio: null, lower: 27.84, upper: null, events: 28 })).toBe(
+      "no wear repairs of this in the rest of the fleet in this band, at least 28 times its rate",
+    );
   });
 });

@@ -27,7 +27,25 @@ const digest: Digest = {
     },
   ],
   stateChanges: [],
-  comebacks: [{ fault: "P0300 — Random misfire", count: 1 }],
+  comebacks: [
+    { fault: "P0300 — Random misfire", count: 1, fixHeld: null },
+    {
+      fault: "Fuel vapour → Purge valve",
+      count: 3,
+      // Wilson 1927 via statistics.md: 81/263 → 0.2553–0.3662 at 95% (Newcombe 1998, method 3).
+      fixHeld: {
+        fixes: 263,
+        stillOpen: 4,
+        held: 81,
+        comebacks: 182,
+        estimate: 81 / 263,
+        lower: 0.2553,
+        upper: 0.3662,
+        confidence: 0.95,
+        window: { days: 30, miles: 3000 },
+      },
+    },
+  ],
   atRisk: [
     {
       vehicle: "T-104",
@@ -69,7 +87,11 @@ describe("the weekly digest e-mail in plain words", () => {
     expect(mail.text).toContain(
       "- T-022: Signal: Fuel vapour → Purge valve — about 3.2 failures (likely 1.1 to 6.4)",
     );
-    expect(mail.text).toContain("- P0300 — Random misfire: 1 vehicle back");
+    expect(mail.text).toContain("- P0300 — Random misfire: 1 vehicle back\n");
+    // How often the fix held, the one definition (lib/fix-held.ts) the screens show.
+    expect(mail.text).toContain(
+      "- Fuel vapour → Purge valve: 3 vehicles back; overall, the fix held in 81 of 263 repairs (31%), likely between 26% and 37%",
+    );
     expect(mail.text).toContain("“Likely” and “at least” are at 90% confidence");
   });
 

@@ -29,7 +29,7 @@ async function allFaults(viewId: number | null) {
   const out = new Map<string, { events: number; exposure: number }>();
   for (const r of heat) {
     for (const c of r.cells)
-      out.set(`${r.id}|${c.band}`, { events: c.events, exposure: c.exposureMi });
+      out.set(`${r.id}|${c.bandIndex}`, { events: c.events, exposure: c.exposureMi });
   }
   return out;
 }

@@ -83,7 +83,7 @@ export default async function KnownIssuesPage({
                     Fault
                   </th>
                   <th scope="col" className="py-2 pr-3 text-right font-medium">
-                    Findings (cause / not)
+                    Technicians&apos; findings: the cause / not the cause
                   </th>
                   <th scope="col" className="py-2 font-medium">
                     Changed
@@ -108,9 +108,11 @@ export default async function KnownIssuesPage({
                       </span>
                     </td>
                     <td className="py-2 pr-3">
-                      {k.dtcCodes.length > 0 ? (
-                        <span className="font-mono text-[13px]">{k.dtcCodes.join(" ")}</span>
-                      ) : null}
+                      {k.dtcNames.map((name) => (
+                        <span key={name} className="block">
+                          {name}
+                        </span>
+                      ))}
                       {k.component ? <span className="block">{k.component}</span> : null}
                     </td>
                     <td className="py-2 pr-3 text-right tabular-nums">

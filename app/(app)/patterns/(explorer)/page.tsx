@@ -15,6 +15,7 @@ import { getHeatmap, getPatternOptions } from "@/db/queries/patterns";
 import { requirePage } from "@/lib/auth/guard";
 import { CellQuery, HeatmapQuery } from "@/lib/cell-request";
 import { formatBand } from "@/lib/format";
+import { intervalLabel } from "@/lib/plain-words";
 import { queryValues, type PageSearchParams } from "@/lib/search-params";
 
 export const metadata: Metadata = { title: "Patterns" };
@@ -63,6 +64,7 @@ export default async function PatternsPage({ searchParams }: { searchParams: Pag
       generation: hq.data?.generation,
       bandFromMi: hq.data?.bandFrom,
       bandToMi: hq.data?.bandTo,
+      kind: hq.data?.kind,
       viewId,
     }),
     listRankedCells(db, auth, {
@@ -73,6 +75,7 @@ export default async function PatternsPage({ searchParams }: { searchParams: Pag
       bandFromMi: cq.data?.bandFrom,
       bandToMi: cq.data?.bandTo,
       isSignalOnly: cq.data?.signals,
+      kind: cq.data?.kind,
       sort: cq.data?.sort,
       direction: cq.data?.direction,
       withFirstSeen: true,
@@ -91,16 +94,18 @@ export default async function PatternsPage({ searchParams }: { searchParams: Pag
     <>
       <PageHeader
         title="Patterns"
-        description={`Where failures concentrate by cohort and mileage band, and how sure we are. Computed ${run.finishedAt.slice(0, 16).replace("T", " ")} UTC from every repair and odometer reading; ${Math.round(run.confidenceLevel * 100)}% intervals; ${run.signals} signal${run.signals === 1 ? "" : "s"} among ${run.cells.toLocaleString("en-GB")} cells.`}
+        description={`Where failures concentrate by cohort and mileage band, and how sure we are. Computed ${run.finishedAt.slice(0, 16).replace("T", " ")} UTC from every repair and odometer reading; each figure with its ${intervalLabel(run.confidenceLevel)}; ${run.signals} signal${run.signals === 1 ? "" : "s"} among ${run.cells.toLocaleString("en-GB")} cells.`}
       />
       <Explorer
         options={{ ...options, bands }}
         unit={unit}
+        confidence={run.confidenceLevel}
         initial={{
           heatmapQuery: heatmapQuery(params),
-          heatmap,
+          heatmap: { ...heatmap, run },
           cellsQuery: cellsQuery(params),
           cells: {
+            run,
             total: ranked.total,
             cells: ranked.cells.map((c) => ({ ...c, firstSeen: c.firstSeen ?? null })),
           },
