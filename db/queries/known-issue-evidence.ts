@@ -27,8 +27,9 @@ function cohortSql(issue: IssueScope): SQL {
 }
 
 /**
- * Repair lines (alias l) that fix the issue's fault: one of its DTCs or its component, never a
- * scheduled-service line (a part replaced by the schedule is not a repair of the fault).
+ * Repair lines (alias l) that fix the issue's fault: failure lines of one of its DTCs or its
+ * component, as lib/fix-held.ts and the at-risk list count them (a part replaced by the
+ * schedule, or worn out, is not a repair of the fault).
  */
 export function faultSql(issue: Pick<IssueScope, "dtcCodes" | "component">): SQL {
   const parts: SQL[] = [];
@@ -44,7 +45,7 @@ export function faultSql(issue: Pick<IssueScope, "dtcCodes" | "component">): SQL
       sql`l.component_id = (select id from components where slug = ${issue.component.slug})`,
     );
   }
-  return parts.length ? sql`(l.kind <> 'service' and (${sql.join(parts, sql` or `)}))` : sql`0`;
+  return parts.length ? sql`(l.kind = 'failure' and (${sql.join(parts, sql` or `)}))` : sql`0`;
 }
 
 /** A computed cell a known issue covers: where it sits, its band, its figures and its fault's name. */

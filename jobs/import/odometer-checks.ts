@@ -2,8 +2,9 @@
  * Odometer plausibility per vehicle while reading a file: each reading is judged against the
  * vehicle's other readings by date, and a doubtful one is a warning on its row, never a
  * rejection (pump-keyed odometers are noisy, common practice). The row is imported; the
- * exposure calculation leaves implausible readings out by its own rule
- * (lib/stats/clean-odometer-readings.ts), and the vehicle page marks them doubtful.
+ * exposure calculation leaves such readings out (lib/stats/clean-odometer-readings.ts: the
+ * same 1,500 mi a day, any backwards step, a tenfold jump) and counts them as "readings
+ * ignored", and the vehicle page marks them doubtful.
  *
  * A reading is doubtful when it is
  * - more than 20% or 10,000 mi (whichever is larger) below an earlier-dated reading;
@@ -23,7 +24,8 @@
  * longer judged.
  */
 
-const MAX_MILES_PER_DAY = 1_500;
+/** One limit for the warning and for the exposure (lib/stats/clean-odometer-readings.ts). */
+import { MAX_MILES_PER_DAY } from "@/lib/stats/clean-odometer-readings";
 const BACKWARDS_SHARE = 0.2;
 const BACKWARDS_MILES = 10_000;
 const KM_AS_MILES = 1.609344;

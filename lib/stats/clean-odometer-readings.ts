@@ -8,8 +8,12 @@ export interface CleanedReadings<T extends OdometerReading> {
   ignored: number;
 }
 
-/** Fastest plausible average speed between two kept readings. */
-const MAX_MILES_PER_DAY = 2000;
+/**
+ * Fastest plausible average speed between two kept readings, miles a day: the same limit the
+ * import warns at (jobs/import/odometer-checks.ts), so a reading warned about is one the
+ * exposure leaves out.
+ */
+export const MAX_MILES_PER_DAY = 1_500;
 /** A reading at least this many times the previous kept one is an order-of-magnitude jump… */
 const JUMP_FACTOR = 10;
 /** …when the previous kept one is at least this high (new vehicles legitimately grow ×10). */
@@ -25,8 +29,8 @@ const LOOKAHEAD = 64;
  * dropped. Of the rest, taken in time order, the largest set is kept in which every kept
  * reading, compared with the kept reading before it,
  *   1. does not go backwards (odometer not lower),
- *   2. implies at most 2,000 miles a day (a gap shorter than one day counts as one day, so
- *      same-day readings may differ by up to 2,000 miles), and
+ *   2. implies at most 1,500 miles a day (a gap shorter than one day counts as one day, so
+ *      same-day readings may differ by up to 1,500 miles), and
  *   3. is not an order-of-magnitude jump: not 10 or more times the previous kept reading when
  *      that one is at least 1,000 miles (a digit typed twice).
  * Keeping the largest consistent set, rather than comparing each reading with the one before

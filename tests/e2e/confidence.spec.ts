@@ -95,3 +95,55 @@ test("at 90% confidence every interval on the patterns, drill-down and lookup sa
   await expect(page.locator("main")).not.toContainText(NAMED_95);
   await screenshot(page, "lookup-90-percent");
 });
+
+test("at 90% confidence no page names a 95% interval, limit or confidence", async ({ page }) => {
+  test.setTimeout(240_000);
+  const org = await orgId(CONFIDENCE_ORG.slug);
+  // The first test set 90% and waited for the recompute (serial mode).
+  expect(await runConfidence(org)).toBe(0.9);
+  await signInAs(page, CONFIDENCE_ADMIN);
+  const [vehicle] = await queryDb<{ id: number }>(
+    `select v.id from vehicles v where v.organisation_id = ?
+        and exists (select 1 from repair_lines l where l.vehicle_id = v.id and l.kind = 'failure')
+      order by v.id limit 1`,
+    [org],
+  );
+  const [issue] = await queryDb<{ id: number }>(
+    "select id from known_issues where organisation_id = ? order by id limit 1",
+    [org],
+  );
+  expect(vehicle).toBeDefined();
+  expect(issue).toBeDefined();
+  // Every screen that shows an interval, a likely range or a level, and the ones around them.
+  const pages = [
+    "/",
+    "/at-risk",
+    "/comebacks",
+    "/comebacks?view=technician&min=1",
+    "/refuel",
+    "/stocking",
+    "/vehicles",
+    `/vehicles/${vehicle!.id}`,
+    "/known-issues",
+    `/known-issues/${issue!.id}`,
+    "/patterns?kind=wear",
+    "/parts",
+    "/imports",
+    "/settings/components",
+  ];
+  for (const path of pages) {
+    await page.goto(path);
+    const main = page.locator("main");
+    await expect(main, path).toBeVisible();
+    await expect(page.getByRole("heading", { level: 1 }), path).toBeVisible();
+    await expect(main, path).not.toContainText(NAMED_95);
+    await expect(main, path).not.toContainText(/95% confidence/);
+  }
+  // Where a level is said, it is the organisation's.
+  await page.goto(`/known-issues/${issue!.id}`);
+  await expect(page.locator("main")).toContainText(/90%/);
+  await page.goto("/comebacks");
+  await expect(page.locator("main")).toContainText("90% interval");
+  await page.goto("/at-risk");
+  await expect(page.locator("main")).toContainText(/90%/);
+});

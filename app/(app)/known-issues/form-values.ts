@@ -16,7 +16,14 @@ import type {
 } from "@/components/known-issues/known-issue-form";
 import { formatBand } from "@/lib/format";
 import { describeCell, sentence, SHARE } from "@/lib/metrics";
-import { formatPlain, formatProbability, formatRange } from "@/lib/plain-words";
+import {
+  describeAgainstChance,
+  formatConfidence,
+  formatPlain,
+  formatProbability,
+  formatRange,
+  intervalLabel,
+} from "@/lib/plain-words";
 import { CAUTIONS, cautionsForComponent, SYMPTOM_LABELS } from "@/lib/known-issues";
 import { milesToUnit, unitToMiles } from "@/lib/units";
 import { CAUTION_KINDS } from "@/db/schema/known-issues";
@@ -182,9 +189,9 @@ export async function valuesFromRefuel(
   const what = symptoms.map((s) => SYMPTOM_LABELS[s].toLowerCase()).join("s and ") + "s";
   const summary =
     `Started from the refuel analysis: ${c.observed} of ${c.events} ${what} on ${c.make} ${c.model} ${c.generation} ` +
-    `came within ${key.window} ${unit} of a fill-up, where chance predicts ${formatPlain(c.expected)} ` +
-    // The refuel test's interval is always 95% (lib/stats/refuel-window-test.ts).
-    `(about ${formatPlain(c.ratio)} times chance, 95% interval ${formatRange(c.lower, c.upper)}, one-sided p ${formatProbability(c.pValue)}; ` +
+    `came within ${key.window} ${unit} of a fill-up, where chance predicts ${formatPlain(c.expected)}: ` +
+    `${describeAgainstChance(c)} (at ${formatConfidence(analysis.confidence)} confidence; ` +
+    `${intervalLabel(analysis.confidence)} ${formatRange(c.lower, c.upper)} times, one-sided p ${formatProbability(c.pValue)}; ` +
     `${c.noFuelData} events had no fuel data).`;
   return {
     ...EMPTY,

@@ -143,16 +143,45 @@ describe("the demo's known issues", () => {
     expect(cb.held).toBe(cb.fixes - cb.comebacks);
     expect(cb.lower).toBeLessThanOrEqual(cb.estimate);
     expect(cb.upper).toBeGreaterThanOrEqual(cb.estimate);
-    // Affected counts match an independent count of vehicles with a fixing repair.
+    // Affected counts match an independent count of vehicles with a fixing repair: a failure
+    // line (as the fix-held figure and the at-risk list count them) of the fault.
     const [independent] = await db.all<{ n: number }>(sql`
       select count(distinct l.vehicle_id) as n from repair_lines l
         join vehicles v on v.id = l.vehicle_id join generations g on g.id = v.generation_id
         left join components k on k.id = l.component_id
-       where l.organisation_id = ${scope.shopManager!.organisationId}
+       where l.organisation_id = ${scope.shopManager!.organisationId} and l.kind = 'failure'
          and v.model = 'Kestrel' and g.label = 'K2'
          and (k.slug = 'fuel-vapour/purge-valve' or exists (select 1 from repair_line_codes c
               where c.repair_line_id = l.id and c.dtc in ('P0496', 'P0441')))`);
     expect(ev.affected.length).toBe(Number(independent?.n));
+
+    // A wear line carrying one of the issue's codes (brake pads worn, the code read in passing)
+    // on a K2 not yet affected: neither the affected vehicles nor the fix-held figure move.
+    const affected = new Set(ev.affected.map((a) => a.id));
+    // Inside the issue's mileage range, where a failure line would make the vehicle affected.
+    const mi = (detail.mileageFromMi ?? 50_000) + 1_000;
+    const org = scope.shopManager!.organisationId;
+    const k2 = await db.all<{ id: number }>(sql`
+      select v.id from vehicles v join generations g on g.id = v.generation_id
+       where v.organisation_id = ${org} and v.model = 'Kestrel' and g.label = 'K2' order by v.id`);
+    const spare = k2.map((v) => Number(v.id)).find((id) => !affected.has(id))!;
+    expect(spare).toBeDefined();
+    const [ro] = await db.all<{ id: number }>(sql`
+      insert into repair_orders (organisation_id, vehicle_id, ro_number, opened_on, odometer_mi)
+      values (${org}, ${spare}, 'WEAR-WITH-CODE', '2015-03-01', ${mi}) returning id`);
+    const [line] = await db.all<{ id: number }>(sql`
+      insert into repair_lines (organisation_id, repair_order_id, vehicle_id, opened_on, odometer_mi,
+                                component_id, kind, correction)
+      values (${org}, ${Number(ro!.id)}, ${spare}, '2015-03-01', ${mi},
+              (select id from components where slug = 'brakes/front-pads'), 'wear', 'Pads replaced')
+      returning id`);
+    await db.run(sql`insert into repair_line_codes (organisation_id, repair_line_id, vehicle_id, dtc)
+      values (${org}, ${Number(line!.id)}, ${spare}, 'P0496')`);
+    const after = await getKnownIssueEvidence(db, scope.shopManager!, detail);
+    expect(after.affected.map((a) => a.id)).not.toContain(spare);
+    expect(after.affected.length).toBe(ev.affected.length);
+    expect(await getKnownIssueFixHeld(db, scope.shopManager!, detail)).toEqual(cb);
+    await db.run(sql`delete from repair_orders where id = ${Number(ro!.id)}`);
   });
 });
 

@@ -38,15 +38,15 @@ describe("cleanOdometerReadings", () => {
     expect(kept.map((r) => r.odometer)).toEqual([45_000, 45_800, 46_900]);
   });
 
-  it("2,000 mi/day: 4,000 miles in 2 days is kept, 4,001 is not; same-day gaps count as a day", () => {
+  it("1,500 mi/day: 3,000 miles in 2 days is kept, 3,001 is not; same-day gaps count as a day", () => {
     const ok = cleanOdometerReadings([
       { at: day(0), odometer: 1_000 },
-      { at: day(2), odometer: 5_000 },
+      { at: day(2), odometer: 4_000 },
     ]);
     expect(ok.ignored).toBe(0);
     const fast = cleanOdometerReadings([
       { at: day(0), odometer: 1_000 },
-      { at: day(2), odometer: 5_001 },
+      { at: day(2), odometer: 4_001 },
     ]);
     expect(fast.ignored).toBe(1);
     // Two readings dated the same day (no time of day): zero elapsed time, counted as one day.
@@ -58,7 +58,7 @@ describe("cleanOdometerReadings", () => {
   });
 
   it("an order-of-magnitude jump (a digit typed twice) is dropped even when slow enough", () => {
-    // 45,000 → 450,000 over a year is ~1,110 mi/day (under 2,000) but ×10 from ≥ 1,000.
+    // 45,000 → 450,000 over a year is ~1,110 mi/day (under 1,500) but ×10 from ≥ 1,000.
     const { kept, ignored } = cleanOdometerReadings([
       { at: day(0), odometer: 45_000 },
       { at: day(365), odometer: 450_000 },
