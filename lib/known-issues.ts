@@ -9,6 +9,9 @@ import {
 import { SYMPTOMS } from "@/db/schema/records";
 import { parseDtc } from "@/lib/dtc";
 
+/** The symptoms a repair line can carry (the schema's list), for screens that offer them. */
+export { SYMPTOMS };
+
 /** Words shown for each state (Recurra's own) and what it means for the people using it. */
 export const STATE_LABELS: Record<KnownIssueState, { label: string; meaning: string }> = {
   watching: {

@@ -1,7 +1,6 @@
 import Link from "next/link";
 import { buttonClass, inputClass } from "@/components/ui/button";
-import { SYMPTOMS } from "@/db/schema/records";
-import { SYMPTOM_LABELS } from "@/lib/known-issues";
+import { SYMPTOM_LABELS, SYMPTOMS } from "@/lib/known-issues";
 
 /** A text field of the lookup form: its query name, label, hint and input attributes. */
 type QueryFieldSpec = {

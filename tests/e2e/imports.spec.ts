@@ -1,5 +1,5 @@
 import type { Page } from "@playwright/test";
-import { expect, orgId, queryDb, screenshot, signIn, test } from "./support";
+import { asRole, expect, orgId, queryDb, screenshot, signIn, test } from "./support";
 
 const FIXTURE = "tests/fixtures/repairs-small.csv";
 
@@ -75,20 +75,15 @@ test("a manager uploads repairs, maps columns, watches progress, reads the rejec
 
 test("technicians and viewers cannot import", async ({ browser, baseURL }) => {
   for (const role of ["technician", "viewer"] as const) {
-    // A browser context of its own per role. With one page and clearCookies, a run found the
-    // technician still signed in at the viewer's sign-in (probably a request of the open page
-    // set the session cookie again after it was cleared).
-    const context = await browser.newContext({ baseURL });
-    const page = await context.newPage();
-    await signIn(page, role);
-    const res = await page.goto("/imports");
-    expect(res?.status(), role).toBe(403);
-    const put = await page.request.put("/api/imports?kind=repairs&name=x.csv", {
-      data: "ro_number,unit_number,opened_on\nX,TP-0101,2026-01-01\n",
-      headers: { "content-type": "text/csv" },
+    await asRole(browser, baseURL, role, async (page) => {
+      const res = await page.goto("/imports");
+      expect(res?.status(), role).toBe(403);
+      const put = await page.request.put("/api/imports?kind=repairs&name=x.csv", {
+        data: "ro_number,unit_number,opened_on\nX,TP-0101,2026-01-01\n",
+        headers: { "content-type": "text/csv" },
+      });
+      expect(put.status(), role).toBe(403);
     });
-    expect(put.status(), role).toBe(403);
-    await context.close();
   }
 });
 

@@ -1,5 +1,5 @@
 import { execFileSync } from "node:child_process";
-import { expect, orgId, queryDb, screenshot, signIn, test } from "./support";
+import { asRole, expect, orgId, queryDb, screenshot, signIn, test } from "./support";
 
 const LINK = /https?:\/\/[^\s]+\/invite\/[A-Za-z0-9_-]{43}/;
 
@@ -101,18 +101,15 @@ test("viewer and technician are refused the members and mail pages (403)", async
   baseURL,
 }) => {
   for (const role of ["viewer", "technician"] as const) {
-    // A fresh browser per role: clearing cookies can race a session refresh still in flight.
-    const context = await browser.newContext({ baseURL });
-    const page = await context.newPage();
-    await signIn(page, role);
-    for (const path of ["/settings/members", "/settings/mail"]) {
-      const res = await page.goto(path);
-      expect(res?.status(), `${role} ${path}`).toBe(403);
-      await expect(page.getByRole("heading", { level: 1 })).toHaveText(
-        "Your role cannot open this page",
-      );
-    }
-    await context.close();
+    await asRole(browser, baseURL, role, async (page) => {
+      for (const path of ["/settings/members", "/settings/mail"]) {
+        const res = await page.goto(path);
+        expect(res?.status(), `${role} ${path}`).toBe(403);
+        await expect(page.getByRole("heading", { level: 1 })).toHaveText(
+          "Your role cannot open this page",
+        );
+      }
+    });
   }
 });
 

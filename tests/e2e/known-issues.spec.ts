@@ -1,4 +1,4 @@
-import { expect, openTopRankedCell, queryDb, screenshot, signIn, test } from "./support";
+import { asRole, expect, openTopRankedCell, queryDb, screenshot, signIn, test } from "./support";
 
 /** A 1×1 PNG (the smallest valid image), and a text file that only pretends to be one. */
 const PNG = Buffer.from(
@@ -151,27 +151,25 @@ test("vehicle names link to their pages only for roles that may open them", asyn
   );
   const linkCounts: Record<string, number> = {};
   for (const role of ["manager", "viewer"] as const) {
-    const context = await browser.newContext({ baseURL });
-    const page = await context.newPage();
-    await signIn(page, role);
-    await page.goto(`/known-issues/${issue?.id}`);
-    const affected = page.getByRole("heading", { name: /^Vehicles affected \(\d+\)$/ });
-    await expect(affected).toBeVisible();
-    linkCounts[role] = await page.locator('main a[href^="/vehicles/"]').count();
-    if (role === "viewer") {
-      // Every vehicle link is refused to a viewer: none is offered, the names are still shown.
-      expect(await page.locator("main [data-vehicle-id]").count()).toBeGreaterThan(0);
-      expect(await page.locator("main a[data-vehicle-id]").count()).toBe(0);
-      for (const href of await page
-        .locator("main a[href]")
-        .evaluateAll((as) => as.map((a) => a.getAttribute("href") ?? ""))) {
-        if (href.startsWith("/")) {
-          const res = await page.request.get(href);
-          expect(res.status(), href).toBeLessThan(400);
+    await asRole(browser, baseURL, role, async (page) => {
+      await page.goto(`/known-issues/${issue?.id}`);
+      const affected = page.getByRole("heading", { name: /^Vehicles affected \(\d+\)$/ });
+      await expect(affected).toBeVisible();
+      linkCounts[role] = await page.locator('main a[href^="/vehicles/"]').count();
+      if (role === "viewer") {
+        // Every vehicle link is refused to a viewer: none is offered, the names are still shown.
+        expect(await page.locator("main [data-vehicle-id]").count()).toBeGreaterThan(0);
+        expect(await page.locator("main a[data-vehicle-id]").count()).toBe(0);
+        for (const href of await page
+          .locator("main a[href]")
+          .evaluateAll((as) => as.map((a) => a.getAttribute("href") ?? ""))) {
+          if (href.startsWith("/")) {
+            const res = await page.request.get(href);
+            expect(res.status(), href).toBeLessThan(400);
+          }
         }
       }
-    }
-    await context.close();
+    });
   }
   expect(linkCounts.manager).toBeGreaterThan(0);
   expect(linkCounts.viewer).toBe(0);

@@ -1,4 +1,4 @@
-import { expect, screenshot, signIn, test } from "./support";
+import { asRole, expect, screenshot, signIn, test } from "./support";
 
 test("the shop owner adds a part, books a delivery, counts the shelf, edits and removes it", async ({
   page,
@@ -85,11 +85,11 @@ test("the shop owner adds a part, books a delivery, counts the shelf, edits and 
   await screenshot(page, "parts");
 });
 
-test("a technician and a viewer cannot open the parts list", async ({ page }) => {
+test("a technician and a viewer cannot open the parts list", async ({ browser, baseURL }) => {
   for (const role of ["technician", "viewer"] as const) {
-    await page.context().clearCookies();
-    await signIn(page, role);
-    expect((await page.goto("/parts"))?.status(), role).toBe(403);
-    expect((await page.goto("/parts/1"))?.status(), role).toBe(403);
+    await asRole(browser, baseURL, role, async (page) => {
+      expect((await page.goto("/parts"))?.status(), role).toBe(403);
+      expect((await page.goto("/parts/1"))?.status(), role).toBe(403);
+    });
   }
 });

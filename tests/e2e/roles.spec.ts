@@ -1,4 +1,4 @@
-import { expect, screenshot, signIn, test, type DemoRole } from "./support";
+import { asRole, expect, screenshot, signIn, test, type DemoRole } from "./support";
 
 /** What each role sees in the main navigation (product brief, "Roles"). */
 const NAV: Record<DemoRole, string[]> = {
@@ -91,14 +91,17 @@ test("technician opening admin settings gets the 403 page", async ({ page }) => 
   await screenshot(page, "forbidden-technician-settings");
 });
 
-test("viewer and technician posting to a write route are refused with 403", async ({ page }) => {
+test("viewer and technician posting to a write route are refused with 403", async ({
+  browser,
+  baseURL,
+}) => {
   const body = { unitNumber: "TP-9999", make: "Aurel", model: "Kestrel", modelYear: 2018 };
   for (const role of ["viewer", "technician"] as const) {
-    await page.context().clearCookies();
-    await signIn(page, role);
-    const res = await page.request.post("/api/vehicles", { data: body });
-    expect(res.status(), role).toBe(403);
-    expect((await res.json()).error).toContain(`The ${role} role may not do this`);
+    await asRole(browser, baseURL, role, async (page) => {
+      const res = await page.request.post("/api/vehicles", { data: body });
+      expect(res.status(), role).toBe(403);
+      expect((await res.json()).error).toContain(`The ${role} role may not do this`);
+    });
   }
 });
 

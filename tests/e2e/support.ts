@@ -1,5 +1,5 @@
 import { createClient } from "@libsql/client";
-import { test as base, expect, type Page } from "@playwright/test";
+import { test as base, expect, type Browser, type Page } from "@playwright/test";
 
 export const PASSWORD = "recurra-demo";
 export const ACCOUNTS = {
@@ -55,6 +55,27 @@ export async function signInAs(page: Page, email: string, password = PASSWORD) {
   await page.getByRole("button", { name: "Sign in" }).click();
   await page.waitForURL((url) => url.pathname === "/");
   await expect(page.getByTestId("who")).toBeVisible();
+}
+
+/**
+ * Runs `fn` signed in as `role` in a browser context of its own, closed afterwards. Signing in
+ * as one role after another on one page with clearCookies races with that page's own requests:
+ * a late session response can set the cookie again, and the next sign-in lands signed in.
+ */
+export async function asRole(
+  browser: Browser,
+  baseURL: string | undefined,
+  role: DemoRole,
+  fn: (page: Page) => Promise<void>,
+) {
+  const context = await browser.newContext({ baseURL });
+  try {
+    const page = await context.newPage();
+    await signIn(page, role);
+    await fn(page);
+  } finally {
+    await context.close();
+  }
 }
 
 export async function screenshot(page: Page, name: string) {
